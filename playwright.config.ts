@@ -1,0 +1,49 @@
+import { defineConfig, devices } from '@playwright/test';
+
+const port = Number(process.env.E2E_PORT || 4173);
+const baseURL = `http://localhost:${port}`;
+
+export default defineConfig({
+	testDir: 'tests/e2e',
+	testMatch: '**/*.e2e.ts',
+	// Two cores: one worker, tests in order.
+	workers: 1,
+	fullyParallel: false,
+	retries: process.env.CI ? 1 : 0,
+	timeout: 60_000,
+	reporter: process.env.CI ? [['list']] : [['list'], ['html', { open: 'never' }]],
+	use: {
+		baseURL,
+		trace: 'retain-on-failure',
+		screenshot: 'only-on-failure',
+		launchOptions: { executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium' }
+	},
+	projects: [
+		{
+			name: 'desktop',
+			use: { ...devices['Desktop Chrome'] },
+			testIgnore: '**/*.tablet.e2e.ts'
+		},
+		{
+			name: 'tablet',
+			use: { viewport: { width: 1024, height: 768 }, hasTouch: true, isMobile: false },
+			testMatch: '**/*.tablet.e2e.ts'
+		}
+	],
+	webServer: {
+		command: 'node scripts/e2e-server.js',
+		url: `${baseURL}/api/health`,
+		reuseExistingServer: false,
+		timeout: 240_000,
+		stdout: 'ignore',
+		gracefulShutdown: { signal: 'SIGTERM', timeout: 5000 },
+		env: {
+			PORT: String(port),
+			ORIGIN: baseURL,
+			DATABASE_URL: 'test-results/e2e-data/tacksheet.db',
+			UPLOADS_DIR: 'test-results/e2e-data/uploads',
+			AUTH_SECRET: 'e2e-secret-not-for-production-0123456789abcdef',
+			TACKSHEET_DEMO: '1'
+		}
+	}
+});

@@ -1,0 +1,216 @@
+/**
+ * Where a joint stands, derived from its records and never typed in.
+ * Also the one place that says how each state looks: label, colour and glyph.
+ * Pure: used by the server (cached state column, lists), the viewer and the export.
+ */
+
+export const JOINT_STATES = [
+	'awaiting_fitup',
+	'fitup_rejected',
+	'ready_to_weld',
+	'awaiting_visual',
+	'repair',
+	'awaiting_nde',
+	'accepted',
+	'void'
+] as const;
+
+export type JointState = (typeof JOINT_STATES)[number];
+
+export const NDE_METHODS = ['RT', 'UT', 'MT', 'PT'] as const;
+export type NdeMethod = (typeof NDE_METHODS)[number];
+
+export type InspectionStage = 'fitup' | 'visual' | 'nde';
+export type Decision = 'accept' | 'reject';
+
+/** The role that owes the next step; the foreman welds and repairs, the inspector examines. */
+export type StateOwner = 'foreman' | 'inspector' | null;
+
+export interface StateLook {
+	label: string;
+	/** What has to happen next, in the words of the site. */
+	next: string;
+	owner: StateOwner;
+	/** Hex colour, mirrored by the `--color-state-*` tokens in app.css (a test keeps them equal). */
+	color: string;
+	/** A text colour readable on `color`. */
+	onColor: string;
+	glyph: Glyph;
+}
+
+/**
+ * A glyph is drawn in a 20 × 20 box centred on the pin (y down, as in SVG), so the same
+ * path data serves the SVG overlay and the stamped PDF. Shapes differ per state, so the map
+ * reads without colour.
+ */
+export interface Glyph {
+	/** Outline of the shape. */
+	shape: string;
+	/** Filled with the state's colour, or drawn as a ring on white. */
+	filled: boolean;
+	/** A mark inside the shape, stroked. */
+	mark?: string;
+	/** One character for places where only text fits (lists, CSV). */
+	symbol: string;
+}
+
+const circle = 'M 0 -9 A 9 9 0 1 1 0 9 A 9 9 0 1 1 0 -9 Z';
+
+export const STATE_LOOKS: Record<JointState, StateLook> = {
+	awaiting_fitup: {
+		label: 'Awaiting fit-up',
+		next: 'Fit-up inspection',
+		owner: 'inspector',
+		color: '#5d6f86',
+		onColor: '#ffffff',
+		glyph: { shape: circle, filled: false, symbol: '○' }
+	},
+	fitup_rejected: {
+		label: 'Fit-up rejected',
+		next: 'Correct the fit-up and call the inspector again',
+		owner: 'foreman',
+		color: '#b4531f',
+		onColor: '#ffffff',
+		glyph: { shape: circle, filled: false, mark: 'M -6.4 6.4 L 6.4 -6.4', symbol: '⊘' }
+	},
+	ready_to_weld: {
+		label: 'Ready to weld',
+		next: 'Weld the joint',
+		owner: 'foreman',
+		color: '#1d7585',
+		onColor: '#ffffff',
+		glyph: { shape: 'M 0 -9.5 L 9.5 7.5 L -9.5 7.5 Z', filled: true, symbol: '▲' }
+	},
+	awaiting_visual: {
+		label: 'Awaiting visual',
+		next: 'Visual inspection',
+		owner: 'inspector',
+		color: '#a67c00',
+		onColor: '#1a1a1a',
+		glyph: { shape: 'M 0 -10 L 10 0 L 0 10 L -10 0 Z', filled: true, symbol: '◆' }
+	},
+	repair: {
+		label: 'Repair',
+		next: 'Repair the weld',
+		owner: 'foreman',
+		color: '#b3261e',
+		onColor: '#ffffff',
+		glyph: {
+			shape: 'M -8.5 -8.5 L 8.5 -8.5 L 8.5 8.5 L -8.5 8.5 Z',
+			filled: true,
+			mark: 'M -4.5 -4.5 L 4.5 4.5 M 4.5 -4.5 L -4.5 4.5',
+			symbol: '✕'
+		}
+	},
+	awaiting_nde: {
+		label: 'Awaiting NDE',
+		next: 'NDE and its result',
+		owner: 'inspector',
+		color: '#6a4c9c',
+		onColor: '#ffffff',
+		glyph: {
+			shape: 'M -4.8 -8.5 L 4.8 -8.5 L 9.7 0 L 4.8 8.5 L -4.8 8.5 L -9.7 0 Z',
+			filled: true,
+			symbol: '⬢'
+		}
+	},
+	accepted: {
+		label: 'Accepted',
+		next: 'Nothing: complete',
+		owner: null,
+		color: '#2f7d3b',
+		onColor: '#ffffff',
+		glyph: { shape: circle, filled: true, mark: 'M -4.6 0.4 L -1.4 3.8 L 5 -3.6', symbol: '✓' }
+	},
+	void: {
+		label: 'Void',
+		next: 'Nothing: voided',
+		owner: null,
+		color: '#868c92',
+		onColor: '#ffffff',
+		glyph: { shape: circle, filled: false, mark: 'M -5.5 0 L 5.5 0', symbol: '–' }
+	}
+};
+
+/** The inspection rows that matter to the state; superseded corrections are dropped here. */
+export interface StateInspection {
+	id: number;
+	stage: InspectionStage;
+	method?: NdeMethod | null;
+	repairCycle: number;
+	decision: Decision;
+	supersedesId?: number | null;
+}
+
+export interface StateInput {
+	voided: boolean;
+	/** NDE methods this joint must pass: its own requirement plus any sample selection. */
+	ndeMethods: readonly NdeMethod[];
+	welds: readonly { repairCycle: number }[];
+	/** In the order they were recorded. */
+	inspections: readonly StateInspection[];
+}
+
+export interface DerivedState {
+	state: JointState;
+	/** 0 for the original weld, 1 for R1 and so on. */
+	repairCycle: number;
+}
+
+/** The last word at each stage: a correction supersedes the row it names. */
+function effective(inspections: readonly StateInspection[]): StateInspection[] {
+	const superseded = new Set(inspections.map((i) => i.supersedesId).filter((id) => id != null));
+	return inspections.filter((i) => !superseded.has(i.id));
+}
+
+function latest(
+	rows: readonly StateInspection[],
+	match: (row: StateInspection) => boolean
+): StateInspection | undefined {
+	for (let i = rows.length - 1; i >= 0; i--) if (match(rows[i])) return rows[i];
+	return undefined;
+}
+
+export function deriveJointState(input: StateInput): DerivedState {
+	const repairCycle = input.welds.reduce((max, w) => Math.max(max, w.repairCycle), 0);
+	if (input.voided) return { state: 'void', repairCycle };
+
+	const rows = effective(input.inspections);
+
+	if (input.welds.length === 0) {
+		const fitup = latest(rows, (r) => r.stage === 'fitup');
+		if (!fitup) return { state: 'awaiting_fitup', repairCycle };
+		return { state: fitup.decision === 'accept' ? 'ready_to_weld' : 'fitup_rejected', repairCycle };
+	}
+
+	const visual = latest(rows, (r) => r.stage === 'visual' && r.repairCycle === repairCycle);
+	if (!visual) return { state: 'awaiting_visual', repairCycle };
+	if (visual.decision === 'reject') return { state: 'repair', repairCycle };
+
+	let waiting = false;
+	for (const method of input.ndeMethods) {
+		const nde = latest(
+			rows,
+			(r) => r.stage === 'nde' && r.method === method && r.repairCycle === repairCycle
+		);
+		if (nde?.decision === 'reject') return { state: 'repair', repairCycle };
+		if (!nde) waiting = true;
+	}
+	return { state: waiting ? 'awaiting_nde' : 'accepted', repairCycle };
+}
+
+/** The weld number as it is written on the map: `12`, or `12-R1` after a first repair. */
+export function displayWeldNumber(number: string, repairCycle: number): string {
+	return repairCycle > 0 ? `${number}-R${repairCycle}` : number;
+}
+
+/** Parse a joint's NDE requirement such as `RT`, `RT+MT` or `none`. */
+export function parseNdeRequirement(text: string | null | undefined): NdeMethod[] {
+	if (!text) return [];
+	return NDE_METHODS.filter((m) =>
+		text
+			.toUpperCase()
+			.split(/[^A-Z]+/)
+			.includes(m)
+	);
+}

@@ -1,0 +1,31 @@
+/**
+ * Runtime settings, read from the environment once. Plain `process.env` rather than
+ * `$env/dynamic/private` so the same modules run under `npm run seed` and the tests.
+ */
+import path from 'node:path';
+
+function flag(value: string | undefined, fallback: boolean): boolean {
+	if (value === undefined || value === '') return fallback;
+	return !['0', 'false', 'no', 'off'].includes(value.toLowerCase());
+}
+
+function megabytes(value: string | undefined, fallback: number): number {
+	const n = Number(value);
+	return Number.isFinite(n) && n > 0 ? n : fallback;
+}
+
+export const config = {
+	databaseUrl: process.env.DATABASE_URL || './data/tacksheet.db',
+	uploadsDir: path.resolve(process.env.UPLOADS_DIR || './uploads'),
+	/** Where the local secret and other machine-local state live. */
+	dataDir: path.resolve(
+		process.env.DATA_DIR || path.dirname(process.env.DATABASE_URL || './data/x')
+	),
+	migrationsDir: path.resolve(process.env.MIGRATIONS_DIR || './drizzle'),
+	demo: flag(process.env.TACKSHEET_DEMO, true),
+	adminEmail: process.env.ADMIN_EMAIL || '',
+	adminPassword: process.env.ADMIN_PASSWORD || '',
+	smtpUrl: process.env.SMTP_URL || '',
+	mailFrom: process.env.MAIL_FROM || 'Tacksheet <no-reply@tacksheet.test>',
+	uploadMaxMb: megabytes(process.env.UPLOAD_MAX_MB, 200)
+};

@@ -1,0 +1,85 @@
+/**
+ * Tacksheet's e-mails: plain, branded with the name in type (no images, so they read the same
+ * with images blocked), each with an HTML and a text part.
+ */
+import type { Message } from './mail';
+
+function escape(text: string): string {
+	return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}
+
+function layout(
+	to: string,
+	subject: string,
+	paragraphs: string[],
+	action?: { label: string; url: string }
+): Message {
+	const html = `<!doctype html><html><body style="margin:0;background:#f3f1ec;font-family:Arial,Helvetica,sans-serif;color:#1c2126">
+<table role="presentation" width="100%" cellpadding="0" cellspacing="0"><tr><td align="center" style="padding:24px 12px">
+<table role="presentation" width="560" cellpadding="0" cellspacing="0" style="max-width:560px;background:#ffffff;border:1px solid #d8d3c8">
+<tr><td style="background:#1f2a33;color:#ffffff;padding:14px 24px;font-size:18px;font-weight:bold;letter-spacing:1px">TACKSHEET</td></tr>
+<tr><td style="padding:24px;font-size:16px;line-height:1.5">
+<h1 style="font-size:20px;margin:0 0 16px">${escape(subject)}</h1>
+${paragraphs.map((p) => `<p style="margin:0 0 14px">${escape(p)}</p>`).join('\n')}
+${
+	action
+		? `<p style="margin:22px 0"><a href="${escape(action.url)}" style="background:#2c5b7a;color:#ffffff;padding:12px 20px;text-decoration:none;font-weight:bold;display:inline-block">${escape(action.label)}</a></p>
+<p style="margin:0 0 14px;font-size:13px;color:#5a636b">Or paste this address into your browser:<br><span style="word-break:break-all">${escape(action.url)}</span></p>`
+		: ''
+}
+</td></tr>
+<tr><td style="padding:14px 24px;border-top:1px solid #d8d3c8;font-size:12px;color:#5a636b">Sent by Tacksheet, weld quality control, to ${escape(to)}.</td></tr>
+</table></td></tr></table></body></html>`;
+	const text = [
+		'TACKSHEET',
+		'',
+		subject,
+		'',
+		...paragraphs.flatMap((p) => [p, '']),
+		...(action ? [`${action.label}:`, action.url, ''] : []),
+		`Sent by Tacksheet, weld quality control, to ${to}.`
+	].join('\n');
+	return { to, subject, text, html };
+}
+
+export type LinkPurpose = 'sign-in' | 'invite' | 'reset';
+
+export function signInLink(
+	to: string,
+	url: string,
+	purpose: LinkPurpose,
+	minutes: number
+): Message {
+	const expiry = `The link works once and for ${minutes} minutes.`;
+	if (purpose === 'invite') {
+		return layout(
+			to,
+			'You are invited to Tacksheet',
+			[
+				'An administrator has given you an account on Tacksheet, where the weld map, inspection records and weld log of your project are kept.',
+				`Use the button below to sign in for the first time, then choose a password under "Your account". ${expiry}`
+			],
+			{ label: 'Sign in to Tacksheet', url }
+		);
+	}
+	if (purpose === 'reset') {
+		return layout(
+			to,
+			'Your Tacksheet password was reset',
+			[
+				'An administrator has reset your password. Sign in with the link below and choose a new one under "Your account".',
+				expiry
+			],
+			{ label: 'Sign in and choose a password', url }
+		);
+	}
+	return layout(
+		to,
+		'Your sign-in link',
+		[
+			'Someone, hopefully you, asked for a link to sign in to Tacksheet with this address.',
+			`${expiry} If you did not ask for it, you can ignore this message.`
+		],
+		{ label: 'Sign in to Tacksheet', url }
+	);
+}

@@ -1,0 +1,72 @@
+/** Projects and the counts their overview shows. */
+import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
+import { db, schema } from './db';
+import { emptyCounts, type StateCounts } from '$lib/state-counts';
+
+export function list(projectIds?: readonly number[]) {
+	const query = db.select().from(schema.projects);
+	const rows = projectIds
+		? query
+				.where(inArray(schema.projects.id, [...projectIds]))
+				.orderBy(asc(schema.projects.code))
+				.all()
+		: query.orderBy(asc(schema.projects.code)).all();
+	return rows;
+}
+
+export function get(projectId: number) {
+	return db.select().from(schema.projects).where(eq(schema.projects.id, projectId)).get();
+}
+
+/** Joints per state for each of the given projects, in one grouped query. */
+export function stateCounts(projectIds: readonly number[]): Map<number, StateCounts> {
+	const result = new Map(projectIds.map((id) => [id, emptyCounts()]));
+	if (projectIds.length === 0) return result;
+	const rows = db
+		.select({ projectId: schema.joints.projectId, state: schema.joints.state, n: count() })
+		.from(schema.joints)
+		.where(inArray(schema.joints.projectId, [...projectIds]))
+		.groupBy(schema.joints.projectId, schema.joints.state)
+		.all();
+	for (const row of rows) result.get(row.projectId)![row.state] = row.n;
+	return result;
+}
+
+/** Joints per state and area, for the overview's breakdown. */
+export function stateCountsByArea(projectId: number) {
+	const rows = db
+		.select({ area: schema.drawings.area, state: schema.joints.state, n: count() })
+		.from(schema.joints)
+		.innerJoin(schema.drawings, eq(schema.drawings.id, schema.joints.drawingId))
+		.where(eq(schema.joints.projectId, projectId))
+		.groupBy(schema.drawings.area, schema.joints.state)
+		.orderBy(asc(schema.drawings.area))
+		.all();
+	const areas = new Map<string, StateCounts>();
+	for (const row of rows) {
+		const counts = areas.get(row.area) ?? emptyCounts();
+		counts[row.state] = row.n;
+		areas.set(row.area, counts);
+	}
+	return [...areas].map(([area, counts]) => ({ area, counts }));
+}
+
+/** Pins that a document controller still has to confirm on current revisions. */
+export function pinsToReview(projectId: number): number {
+	return (
+		db
+			.select({ n: count() })
+			.from(schema.pins)
+			.innerJoin(schema.joints, eq(schema.joints.id, schema.pins.jointId))
+			.innerJoin(schema.revisions, eq(schema.revisions.id, schema.pins.revisionId))
+			.where(
+				and(
+					eq(schema.joints.projectId, projectId),
+					eq(schema.pins.needsReview, true),
+					eq(schema.revisions.status, 'current'),
+					ne(schema.joints.state, 'void')
+				)
+			)
+			.get()?.n ?? 0
+	);
+}

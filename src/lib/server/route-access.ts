@@ -1,0 +1,86 @@
+/**
+ * What every route asks of its caller, by SvelteKit route id and method (and form action).
+ * The hooks enforce it before any load, action or endpoint runs; the route matrix test reads
+ * it to check every route in src/routes, and fails on a route this table does not know.
+ */
+// Relative, type-only imports: the route matrix test reads this table outside SvelteKit.
+import type { GlobalAction, ProjectAction } from '../permissions';
+
+export type Rule =
+	| { access: 'public' }
+	| { access: 'signed-in' }
+	| { access: 'global'; action: GlobalAction }
+	| { access: 'project'; action: ProjectAction };
+
+export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+export interface RouteRules {
+	GET?: Rule;
+	POST?: Rule;
+	PUT?: Rule;
+	PATCH?: Rule;
+	DELETE?: Rule;
+	/** Form actions of a page, by name (`default` for the unnamed one). */
+	actions?: Record<string, Rule>;
+}
+
+const PUBLIC: Rule = { access: 'public' };
+const SIGNED_IN: Rule = { access: 'signed-in' };
+const project = (action: ProjectAction): Rule => ({ access: 'project', action });
+const global = (action: GlobalAction): Rule => ({ access: 'global', action });
+
+export const ROUTES: Record<string, RouteRules> = {
+	'/(auth)/signin': { GET: PUBLIC, actions: { default: PUBLIC } },
+	'/(auth)/signin/link': { GET: PUBLIC, actions: { default: PUBLIC } },
+	'/(auth)/signin/check-email': { GET: PUBLIC },
+	'/(auth)/signin/problem': { GET: PUBLIC },
+	'/(auth)/signout': { GET: PUBLIC, actions: { default: PUBLIC } },
+
+	'/(app)': { GET: SIGNED_IN },
+	'/(app)/projects': { GET: SIGNED_IN },
+	'/(app)/projects/[projectId=id]': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/drawings': { GET: project('project.read') },
+
+	'/(app)/account': { GET: SIGNED_IN, actions: { password: SIGNED_IN } },
+	'/(app)/account/tokens': { GET: SIGNED_IN, actions: { create: SIGNED_IN, revoke: SIGNED_IN } },
+
+	'/(app)/admin/users': {
+		GET: global('users.manage'),
+		actions: {
+			invite: global('users.manage'),
+			disable: global('users.manage'),
+			enable: global('users.manage'),
+			reset: global('users.manage')
+		}
+	},
+	'/(app)/admin/projects/[projectId=id]/members': {
+		GET: global('users.manage'),
+		actions: {
+			add: global('users.manage'),
+			role: global('users.manage'),
+			remove: global('users.manage')
+		}
+	},
+	'/(app)/admin/mail': { GET: global('mail.read') },
+	'/(app)/admin/mail/[messageId=id]': { GET: global('mail.read') },
+
+	'/api/health': { GET: PUBLIC },
+	'/api/me': { GET: SIGNED_IN },
+	'/api/projects': { GET: SIGNED_IN },
+	'/api/tokens': { GET: SIGNED_IN, POST: SIGNED_IN },
+	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }
+};
+
+/** The rule for a request, or undefined when the table does not cover it (refused). */
+export function ruleFor(routeId: string, method: string, search: string): Rule | undefined {
+	const rules = ROUTES[routeId];
+	if (!rules) return undefined;
+	if (method === 'HEAD') method = 'GET';
+	if (method === 'POST' && rules.actions) {
+		const name = search.startsWith('?/')
+			? decodeURIComponent(search.slice(2).split('&')[0])
+			: 'default';
+		return rules.actions[name];
+	}
+	return rules[method as Method];
+}

@@ -1,0 +1,18 @@
+/** Joints per state, as lists and overviews count them. Pure. */
+import { JOINT_STATES, type JointState } from './joint-state';
+
+export type StateCounts = Record<JointState, number>;
+
+export function emptyCounts(): StateCounts {
+	return Object.fromEntries(JOINT_STATES.map((s) => [s, 0])) as StateCounts;
+}
+
+export function totalJoints(counts: StateCounts, { withVoid = true } = {}): number {
+	return JOINT_STATES.reduce((sum, s) => (s === 'void' && !withVoid ? sum : sum + counts[s]), 0);
+}
+
+/** Accepted share of the live joints (voided ones are out of scope). */
+export function acceptedShare(counts: StateCounts): number {
+	const live = totalJoints(counts, { withVoid: false });
+	return live === 0 ? 0 : counts.accepted / live;
+}

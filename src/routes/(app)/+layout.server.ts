@@ -1,0 +1,18 @@
+import * as projects from '$lib/server/projects';
+import type { LayoutServerLoad } from './$types';
+
+export const load = (async ({ locals }) => {
+	// The hooks have already sent anyone signed out to the sign-in page.
+	const user = locals.user!;
+	const visible = projects.list(user.isAdmin ? undefined : Object.keys(user.roles).map(Number));
+	return {
+		user: {
+			id: user.id,
+			name: user.name,
+			email: user.email,
+			isAdmin: user.isAdmin,
+			roles: user.roles
+		},
+		projects: visible.map(({ id, code, name, units }) => ({ id, code, name, units }))
+	};
+}) satisfies LayoutServerLoad;

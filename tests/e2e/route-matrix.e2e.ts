@@ -1,0 +1,168 @@
+/**
+ * Every page, form action and API route in src/routes, found by walking the tree, is asked
+ * for without a session and as each demo role; the answer must be exactly what the route
+ * table and the permissions module say. A route the table does not know fails the test.
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { expect, request as newRequest, test, type APIRequestContext } from '@playwright/test';
+import { ROUTES, type Rule } from '../../src/lib/server/route-access';
+import { can, canGlobal, isMember, type Principal } from '../../src/lib/permissions';
+import { BASE_URL, DEMO_USERS, signedInClient } from './support';
+
+interface Endpoint {
+	routeId: string;
+	method: string;
+	/** Form action name, for POSTs to a page. */
+	action?: string;
+}
+
+const ROUTES_DIR = path.resolve('src/routes');
+
+function discover(dir = ROUTES_DIR): Endpoint[] {
+	const found: Endpoint[] = [];
+	const entries = fs.readdirSync(dir, { withFileTypes: true });
+	const routeId = '/' + path.relative(ROUTES_DIR, dir).split(path.sep).filter(Boolean).join('/');
+	const names = entries.filter((e) => e.isFile()).map((e) => e.name);
+	if (names.some((n) => /^\+page\.(svelte|server\.ts|ts)$/.test(n)))
+		found.push({ routeId, method: 'GET' });
+	const pageServer = names.find((n) => /^\+page\.server\.(ts|js)$/.test(n));
+	if (pageServer) {
+		const source = fs.readFileSync(path.join(dir, pageServer), 'utf8');
+		const block = /export const actions = \{([\s\S]*?)\n\}/.exec(source)?.[1];
+		if (block) {
+			for (const match of block.matchAll(/^\t(\w+):/gm))
+				found.push({ routeId, method: 'POST', action: match[1] });
+		}
+	}
+	const server = names.find((n) => /^\+server\.(ts|js)$/.test(n));
+	if (server) {
+		const source = fs.readFileSync(path.join(dir, server), 'utf8');
+		for (const match of source.matchAll(/export const (GET|POST|PUT|PATCH|DELETE)\b/g)) {
+			found.push({ routeId, method: match[1] });
+		}
+	}
+	for (const entry of entries)
+		if (entry.isDirectory()) found.push(...discover(path.join(dir, entry.name)));
+	return found;
+}
+
+function ruleOf(e: Endpoint): Rule | undefined {
+	const rules = ROUTES[e.routeId];
+	if (!rules) return undefined;
+	return e.action ? rules.actions?.[e.action] : rules[e.method as 'GET'];
+}
+
+/** A concrete URL for a route id: groups dropped, parameters filled with demo ids. */
+function urlOf(e: Endpoint, ids: Record<string, string>): string {
+	const pathname =
+		e.routeId
+			.split('/')
+			.filter((s) => s && !/^\(.*\)$/.test(s))
+			.map((s) => s.replace(/^\[(\w+)(=\w+)?\]$/, (_, name: string) => ids[name] ?? '1'))
+			.join('/') || '';
+	const url = '/' + pathname;
+	return e.action ? `${url}?/${e.action}` : url;
+}
+
+const endpoints = discover();
+
+test('every route in src/routes has an access rule, and every rule a route', () => {
+	const unknown = endpoints
+		.filter((e) => !ruleOf(e))
+		.map((e) => `${e.method} ${e.routeId}${e.action ? ` ?/${e.action}` : ''}`);
+	expect(unknown, 'routes missing from src/lib/server/route-access.ts').toEqual([]);
+	const known = new Set(endpoints.map((e) => e.routeId));
+	expect(
+		Object.keys(ROUTES).filter((id) => !known.has(id)),
+		'rules for routes that do not exist'
+	).toEqual([]);
+	expect(endpoints.length).toBeGreaterThan(15);
+});
+
+type Expectation = 'allowed' | 'signin' | 'forbidden' | 'hidden';
+
+function expected(rule: Rule, principal: Principal | null, projectId: number): Expectation {
+	if (rule.access === 'public') return 'allowed';
+	if (!principal) return 'signin';
+	if (rule.access === 'signed-in') return 'allowed';
+	if (rule.access === 'global') return canGlobal(principal, rule.action) ? 'allowed' : 'forbidden';
+	if (!isMember(principal, projectId)) return 'hidden';
+	return can(principal, rule.action, projectId) ? 'allowed' : 'forbidden';
+}
+
+async function ask(client: APIRequestContext, e: Endpoint, url: string) {
+	const headers = {
+		origin: BASE_URL,
+		accept: e.routeId.startsWith('/api/') ? 'application/json' : 'text/html'
+	};
+	const options = { headers, maxRedirects: 0, failOnStatusCode: false };
+	if (e.method === 'GET') return client.get(url, options);
+	if (e.action) return client.post(url, { ...options, form: {} });
+	return client.fetch(url, { ...options, method: e.method, data: {} });
+}
+
+function check(
+	status: number,
+	location: string | undefined,
+	want: Expectation,
+	api: boolean,
+	what: string
+) {
+	if (want === 'signin') {
+		if (api) expect(status, what).toBe(401);
+		else {
+			expect(status, what).toBe(303);
+			expect(location, what).toContain('/signin?returnTo=');
+		}
+	} else if (want === 'forbidden') expect(status, what).toBe(403);
+	else if (want === 'hidden') expect(status, what).toBe(404);
+	else {
+		expect([401, 403], what).not.toContain(status);
+		expect(location ?? '', what).not.toContain('/signin?returnTo=');
+	}
+}
+
+const callers: { label: string; email: string | null; principal: Principal | null }[] = [
+	{ label: 'no session', email: null, principal: null },
+	...DEMO_USERS.map((u) => ({
+		label: u.email,
+		email: u.email,
+		principal: {
+			isAdmin: u.isAdmin ?? false,
+			roles: Object.fromEntries(
+				u.role
+					? (u.projects ?? ['LBM-20', 'VFT-3']).map((code) => [code === 'LBM-20' ? 1 : 2, u.role!])
+					: []
+			)
+		}
+	}))
+];
+
+for (const caller of callers) {
+	test(`route matrix: ${caller.label}`, async () => {
+		const client = caller.email
+			? await signedInClient(caller.email)
+			: await newRequest.newContext({ baseURL: BASE_URL });
+		// Project 2 (VFT-3) is where the one non-member inspector should find nothing.
+		for (const projectId of [1, 2]) {
+			for (const e of endpoints) {
+				const rule = ruleOf(e)!;
+				// Public posts (sign-in, sign-out) are exercised by the sign-in tests instead.
+				if (rule.access === 'public' && e.method !== 'GET') continue;
+				if (projectId === 2 && rule.access !== 'project') continue;
+				const want = expected(rule, caller.principal, projectId);
+				const url = urlOf(e, { projectId: String(projectId) });
+				const response = await ask(client, e, url);
+				check(
+					response.status(),
+					response.headers()['location'],
+					want,
+					e.routeId.startsWith('/api/'),
+					`${caller.label}: ${e.method} ${url} → ${want}`
+				);
+			}
+		}
+		await client.dispose();
+	});
+}

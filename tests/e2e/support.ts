@@ -1,0 +1,37 @@
+import { expect, request as newRequest, type APIRequestContext, type Page } from '@playwright/test';
+import { DEMO_PASSWORD, DEMO_USERS } from '../../src/lib/server/demo/scenario';
+
+export { DEMO_PASSWORD, DEMO_USERS };
+
+export const BASE_URL = `http://localhost:${process.env.E2E_PORT || 4173}`;
+
+/** An HTTP client signed in the way a script would: a form post to Auth.js's credentials callback. */
+export async function signedInClient(
+	email: string,
+	password = DEMO_PASSWORD
+): Promise<APIRequestContext> {
+	const client = await newRequest.newContext({ baseURL: BASE_URL });
+	const response = await client.post('/auth/callback/credentials', {
+		form: { email, password, callbackUrl: '/projects' },
+		headers: { origin: BASE_URL },
+		maxRedirects: 0
+	});
+	expect(response.status(), `sign-in of ${email}`).toBe(302);
+	expect(response.headers()['location']).not.toContain('error=');
+	return client;
+}
+
+export async function signInInBrowser(page: Page, email: string, password = DEMO_PASSWORD) {
+	await page.goto('/signin');
+	await page.getByLabel('E-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+/** The newest message the mail stand-in received for an address, read on the admin's mail page. */
+export async function latestMailText(page: Page, to: string): Promise<string> {
+	await page.goto('/admin/mail');
+	await page.getByRole('link').filter({ hasText: to }).first().click();
+	await page.getByRole('tab', { name: 'Plain text' }).click();
+	return (await page.getByTestId('mail-text').textContent()) ?? '';
+}

@@ -1,0 +1,130 @@
+import { count, eq, isNotNull } from 'drizzle-orm';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { db, schema } from '$lib/server/db';
+import { seedIfEmpty } from '$lib/server/demo/seed';
+import { stateInput } from '$lib/server/joints';
+import * as storage from '$lib/server/storage';
+import { deriveJointState, JOINT_STATES } from '$lib/joint-state';
+import { verifyPassword } from '$lib/server/passwords';
+import { PDFDocument } from 'pdf-lib';
+
+describe('demo seed', () => {
+	let first: Awaited<ReturnType<typeof seedIfEmpty>>;
+	beforeAll(async () => {
+		first = await seedIfEmpty();
+	}, 120_000);
+
+	it('fills an empty database once, and leaves a filled one alone', async () => {
+		expect(first.seeded).toBe(true);
+		const again = await seedIfEmpty();
+		expect(again.seeded).toBe(false);
+		expect(db.select({ n: count() }).from(schema.projects).get()?.n).toBe(2);
+	});
+
+	it('has one account per role, each with a strong password hash', async () => {
+		const users = db.select().from(schema.users).all();
+		expect(users.map((u) => u.email).sort()).toEqual([
+			'admin@tacksheet.test',
+			'doccon@tacksheet.test',
+			'foreman@tacksheet.test',
+			'inspector2@tacksheet.test',
+			'inspector@tacksheet.test',
+			'turnover@tacksheet.test',
+			'viewer@tacksheet.test'
+		]);
+		for (const user of users) expect(user.passwordHash).toMatch(/^scrypt\$131072\$8\$1\$/);
+		const inspector = users.find((u) => u.email === 'inspector@tacksheet.test')!;
+		expect(await verifyPassword('tacksheet-demo', inspector.passwordHash)).toBe(true);
+		expect(await verifyPassword('wrong', inspector.passwordHash)).toBe(false);
+		const roles = db
+			.selectDistinct({ role: schema.memberships.role })
+			.from(schema.memberships)
+			.all();
+		expect(roles.map((r) => r.role).sort()).toEqual([
+			'doc_controller',
+			'foreman',
+			'inspector',
+			'turnover',
+			'viewer'
+		]);
+	});
+
+	it('has one imperial and one metric project with about a dozen drawings', () => {
+		const projects = db.select().from(schema.projects).all();
+		expect(projects.map((p) => p.units).sort()).toEqual(['imperial', 'metric']);
+		const drawings = db.select({ n: count() }).from(schema.drawings).get()!.n;
+		expect(drawings).toBeGreaterThanOrEqual(11);
+		expect(drawings).toBeLessThanOrEqual(14);
+		const superseded = db
+			.select()
+			.from(schema.revisions)
+			.where(eq(schema.revisions.status, 'superseded'))
+			.all();
+		expect(superseded.length).toBeGreaterThanOrEqual(1);
+		const rotated = db.select().from(schema.pages).where(eq(schema.pages.rotation, 90)).all();
+		expect(rotated.length).toBeGreaterThanOrEqual(1);
+	});
+
+	it('stores every revision as a real PDF whose pages match the rows', async () => {
+		const revisions = db.select().from(schema.revisions).all();
+		for (const revision of revisions) {
+			const bytes = await storage.readAll(revision.fileKey);
+			expect(storage.sha256(bytes)).toBe(revision.sha256);
+			expect(bytes.byteLength).toBe(revision.bytes);
+			const pdf = await PDFDocument.load(bytes);
+			expect(pdf.getPageCount()).toBe(revision.pageCount);
+			const pages = db
+				.select()
+				.from(schema.pages)
+				.where(eq(schema.pages.revisionId, revision.id))
+				.all();
+			for (const page of pages) {
+				const pdfPage = pdf.getPage(page.pageIndex);
+				expect(pdfPage.getRotation().angle).toBe(page.rotation);
+				expect(page.x1 - page.x0).toBeCloseTo(pdfPage.getWidth(), 1);
+			}
+		}
+	});
+
+	it('spreads about 150 joints over every state, and the cached state agrees with the records', () => {
+		const joints = db.select().from(schema.joints).all();
+		expect(joints.length).toBeGreaterThanOrEqual(130);
+		expect(joints.length).toBeLessThanOrEqual(180);
+		const seen = new Set(joints.map((j) => j.state));
+		for (const state of JOINT_STATES) expect(seen, state).toContain(state);
+		for (const joint of joints) {
+			expect(deriveJointState(stateInput(joint.id)!).state, joint.number).toBe(joint.state);
+		}
+	});
+
+	it('puts every live joint on the current revision of its drawing', () => {
+		const pins = db
+			.select({ jointId: schema.pins.jointId, status: schema.revisions.status })
+			.from(schema.pins)
+			.innerJoin(schema.revisions, eq(schema.revisions.id, schema.pins.revisionId))
+			.all();
+		const onCurrent = new Set(pins.filter((p) => p.status === 'current').map((p) => p.jointId));
+		for (const joint of db.select().from(schema.joints).all()) {
+			if (joint.state !== 'void') expect(onCurrent.has(joint.id), joint.number).toBe(true);
+		}
+	});
+
+	it('has welders with stamps and qualifications, and inspections signed by inspectors', () => {
+		expect(db.select({ n: count() }).from(schema.welders).get()!.n).toBeGreaterThanOrEqual(6);
+		expect(
+			db.select({ n: count() }).from(schema.welderQualifications).get()!.n
+		).toBeGreaterThanOrEqual(10);
+		const signed = db
+			.select({ email: schema.users.email })
+			.from(schema.inspections)
+			.innerJoin(schema.users, eq(schema.users.id, schema.inspections.inspectorId))
+			.groupBy(schema.users.email)
+			.all();
+		expect(signed.map((s) => s.email).sort()).toEqual([
+			'inspector2@tacksheet.test',
+			'inspector@tacksheet.test'
+		]);
+		const voided = db.select().from(schema.joints).where(isNotNull(schema.joints.voidReason)).all();
+		expect(voided.length).toBeGreaterThan(0);
+	});
+});
