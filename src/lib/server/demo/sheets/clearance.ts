@@ -11,6 +11,22 @@ interface Capsule {
 	a: Pt;
 	b: Pt;
 	r: number;
+	/** 'line': another line may cross it, never run along it. 'dot': an extension line may pass it. */
+	kind: 'solid' | 'line' | 'dot';
+}
+
+/** How strict a check is: text and bubbles touch nothing; dimension and extension lines may cross lines. */
+export type Crossing = 'strict' | 'dimension' | 'extension';
+
+const PARALLEL = Math.sin((25 * Math.PI) / 180);
+
+function nearlyParallel(a: Pt, b: Pt, c: Pt, d: Pt): boolean {
+	const u = { x: b.x - a.x, y: b.y - a.y };
+	const v = { x: d.x - c.x, y: d.y - c.y };
+	const lu = Math.hypot(u.x, u.y);
+	const lv = Math.hypot(v.x, v.y);
+	if (lu === 0 || lv === 0) return true;
+	return Math.abs(u.x * v.y - u.y * v.x) / (lu * lv) < PARALLEL;
 }
 
 /**
@@ -22,26 +38,40 @@ export class Clearance {
 
 	constructor(readonly bounds: Rect) {}
 
-	segment(a: Pt, b: Pt, r = 0): void {
-		this.items.push({ a, b, r });
+	segment(a: Pt, b: Pt, r = 0, kind: Capsule['kind'] = 'solid'): void {
+		this.items.push({ a, b, r, kind });
 	}
 
 	circle(c: Pt, r: number): void {
-		this.items.push({ a: c, b: c, r });
+		this.items.push({ a: c, b: c, r, kind: 'solid' });
+	}
+
+	dot(c: Pt, r: number): void {
+		this.items.push({ a: c, b: c, r, kind: 'dot' });
 	}
 
 	box(x: number, y: number, w: number, h: number): void {
 		if (w >= h)
-			this.items.push({ a: pt(x + h / 2, y + h / 2), b: pt(x + w - h / 2, y + h / 2), r: h / 2 });
+			this.items.push({
+				a: pt(x + h / 2, y + h / 2),
+				b: pt(x + w - h / 2, y + h / 2),
+				r: h / 2,
+				kind: 'solid'
+			});
 		else
-			this.items.push({ a: pt(x + w / 2, y + w / 2), b: pt(x + w / 2, y + h - w / 2), r: w / 2 });
+			this.items.push({
+				a: pt(x + w / 2, y + w / 2),
+				b: pt(x + w / 2, y + h - w / 2),
+				r: w / 2,
+				kind: 'solid'
+			});
 	}
 
 	/** A run of text from its baseline origin, as the pen draws it. */
 	text(origin: Pt, width: number, size: number, angle: number): void {
 		const along = fromAngle(angle);
 		const mid = add(origin, mul(perp(along), size * 0.36));
-		this.items.push({ a: mid, b: add(mid, mul(along, width)), r: size * 0.5 });
+		this.items.push({ a: mid, b: add(mid, mul(along, width)), r: size * 0.5, kind: 'solid' });
 	}
 
 	private outside(p: Pt, r: number): number {
@@ -56,10 +86,13 @@ export class Clearance {
 		return best;
 	}
 
-	alongSegment(a: Pt, b: Pt, r: number, ignoreNear: Pt[] = [], ignoreRadius = 0): number {
+	/** Free space along a thick segment. */
+	alongSegment(a: Pt, b: Pt, r: number, crossing: Crossing = 'strict'): number {
 		let best = Math.min(this.outside(a, r), this.outside(b, r));
 		for (const it of this.items) {
-			if (ignoreNear.some((q) => distToSegment(q, it.a, it.b) <= ignoreRadius)) continue;
+			if (crossing !== 'strict' && it.kind === 'line' && !nearlyParallel(a, b, it.a, it.b))
+				continue;
+			if (crossing === 'extension' && it.kind === 'dot') continue;
 			best = Math.min(best, segmentDistance(a, b, it.a, it.b) - it.r - r);
 		}
 		return best;

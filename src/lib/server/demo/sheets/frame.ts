@@ -213,7 +213,7 @@ function drawTitleBlock(
 	cell(pen, { x, y, w: q * 0.8, h: 20 * t }, 'AREA', spec.area, t, 6.5);
 	cell(pen, { x: x + q * 0.8, y, w: q * 0.9, h: 20 * t }, 'SYSTEM', spec.system, t, 6.5);
 	cell(pen, { x: x + q * 1.7, y, w: q * 1.3, h: 20 * t }, text.mark.label, text.mark.value, t, 6.5);
-	cell(pen, { x: x + q * 3, y, w: q, h: 20 * t }, 'STATUS', 'ISSUED FOR CONSTR.', t, 5.6, true);
+	cell(pen, { x: x + q * 3, y, w: q, h: 20 * t }, 'STATUS', issuedFor(spec), t, 5.2, true);
 
 	y = row(30);
 	cell(pen, { x, y, w: w * 0.6, h: 30 * t }, 'DRAWING NO.', spec.number, t, 11, true);
@@ -304,14 +304,15 @@ export function drawTable(
 	return height;
 }
 
+/** Isometrics go to site; spools and steel go to the shop first. */
+function issuedFor(spec: DemoSheetSpec): string {
+	return spec.kind === 'isometric' ? 'ISSUED FOR CONSTRUCTION' : 'ISSUED FOR FABRICATION';
+}
+
 function revisionRows(spec: DemoSheetSpec): DemoRevisionEntry[] {
 	const history = [...(spec.revisionHistory ?? [])];
 	if (!history.some((r) => r.label === spec.revision))
-		history.push({
-			label: spec.revision,
-			date: spec.revisionDate,
-			description: 'ISSUED FOR CONSTRUCTION'
-		});
+		history.push({ label: spec.revision, date: spec.revisionDate, description: issuedFor(spec) });
 	return history.slice(-5).reverse();
 }
 
@@ -370,7 +371,7 @@ export function drawFrame(
 		text.initials.approved
 	]);
 	while (rows.length < 3) rows.push(['', '', '', '', '', '']);
-	const revH = drawTable(
+	drawTable(
 		pen,
 		colX,
 		revTop,
@@ -391,7 +392,6 @@ export function drawFrame(
 	const notesHeightEstimate = measureNotes(pen, notesBox.w, text.notes, t);
 	const notesTop = notesBottom + notesHeightEstimate;
 	drawNotes(pen, { ...notesBox, h: notesHeightEstimate }, 'GENERAL NOTES', text.notes, t);
-	void revH;
 
 	const gap = 8 * t;
 	const column: Rect = {

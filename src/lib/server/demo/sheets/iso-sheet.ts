@@ -164,7 +164,7 @@ export class IsoSheet {
 		if (dist(a, b) < 0.5) return;
 		const width = pipeWidth(size, this.g);
 		this.strokes.push({ a, b, width });
-		this.clearance.segment(a, b, width / 2 + 1);
+		this.clearance.segment(a, b, width / 2 + 1, 'line');
 		if (leg)
 			this.count(
 				`PIPE SMLS BE ${scheduleLabel(size, this.schedule, this.units)} ${this.line.material}`,
@@ -177,8 +177,8 @@ export class IsoSheet {
 	bend(a: Pt, corner: Pt, b: Pt, size: PipeSize): void {
 		const width = pipeWidth(size, this.g);
 		this.strokes.push({ a, c: corner, b, width });
-		this.clearance.segment(a, corner, width / 2 + 1);
-		this.clearance.segment(corner, b, width / 2 + 1);
+		this.clearance.segment(a, corner, width / 2 + 1, 'line');
+		this.clearance.segment(corner, b, width / 2 + 1, 'line');
 		this.count(
 			`ELBOW 90 LR BW ${scheduleLabel(size, this.schedule, this.units)} ${this.family.fitting}`,
 			sizeLabel(size, this.units)
@@ -593,7 +593,7 @@ export class IsoSheet {
 						fill: 0
 					})
 				);
-				this.clearance.segment(base, tip, 3.6 * g);
+				this.clearance.segment(base, tip, 3.6 * g, 'line');
 				return;
 			}
 			case 'branch':

@@ -57,6 +57,7 @@ interface Slotting {
 	spans: { lo: number; hi: number }[][];
 }
 
+/** A random free position for an item of half-length `half`, anywhere it fits on the allowed legs. */
 function freeSlot(
 	rng: Rng,
 	s: Slotting,
@@ -64,17 +65,27 @@ function freeSlot(
 	filter: (leg: LegPt) => boolean,
 	check?: (leg: LegPt, pos: number) => boolean
 ): { leg: LegPt; pos: number } | null {
-	const candidates = s.legs.map((_, i) => i).filter((i) => filter(s.legs[i]));
-	for (let tries = 0; tries < 40 && candidates.length; tries++) {
-		const li = rng.pick(candidates);
-		const leg = s.legs[li];
-		const lo = half + 2;
-		const hi = leg.length - half - 2;
-		if (hi <= lo) continue;
-		const pos = rng.range(lo, hi);
-		if (s.spans[li].some((sp) => pos + half > sp.lo && pos - half < sp.hi)) continue;
+	const options: { leg: number; lo: number; hi: number }[] = [];
+	s.legs.forEach((leg, i) => {
+		if (!filter(leg)) return;
+		let ranges = [{ lo: half + 2, hi: leg.length - half - 2 }];
+		for (const sp of s.spans[i])
+			ranges = ranges
+				.flatMap((r) => [
+					{ lo: r.lo, hi: Math.min(r.hi, sp.lo - half) },
+					{ lo: Math.max(r.lo, sp.hi + half), hi: r.hi }
+				])
+				.filter((r) => r.hi > r.lo);
+		for (const r of ranges) options.push({ leg: i, ...r });
+	});
+	const total = options.reduce((sum, o) => sum + o.hi - o.lo, 0);
+	for (let tries = 0; tries < 12 && total > 0; tries++) {
+		let u = rng.next() * total;
+		const option = options.find((o) => (u -= o.hi - o.lo) < 0) ?? options[options.length - 1];
+		const pos = option.hi + u;
+		const leg = s.legs[option.leg];
 		if (check && !check(leg, pos)) continue;
-		s.spans[li].push({ lo: pos - half, hi: pos + half });
+		s.spans[option.leg].push({ lo: pos - half, hi: pos + half });
 		return { leg, pos };
 	}
 	return null;
@@ -355,7 +366,7 @@ export function renderIsometricPage(job: PageJob): PageOutcome {
 		else pen.line(s.a, s.b, { width: s.width, cap: 'round' });
 	}
 	for (const f of sheet.fittings) f();
-	for (const s of sheet.sites) sheet.clearance.circle(s.at, 3.5);
+	for (const s of sheet.sites) sheet.clearance.dot(s.at, 3.5);
 	if (job.variant >= 1 && sheet.revisionBoxes.length) drawCloud(sheet, spec.revision);
 
 	drawDimensions(sheet, spec.units);
@@ -416,13 +427,15 @@ function drawDimensions(sheet: IsoSheet, units: Units): void {
 			const segLen = dist(a, b);
 			if (segLen < 30 * g) continue;
 			const text = lengthLabel((segLen / run.length) * run.realMm, units);
+			// The nearest clear offset wins: a dimension far from its pipe reads as another one's.
 			let best = { score: -Infinity, dir: offsets[0], off: 24 * g };
-			for (const dir of offsets)
-				for (const off of [24 * g, 36 * g, 48 * g]) {
-					const score = dimensionClearance(clearance, pen, a, b, dir, off, text, g) - off * 0.03;
+			for (const off of [24 * g, 36 * g, 48 * g]) {
+				for (const dir of offsets) {
+					const score = dimensionClearance(clearance, pen, a, b, dir, off, text, g);
 					if (score > best.score) best = { score, dir, off };
 				}
-			if (process.env.DIMDEBUG) console.log('dim', text, run.dir, best.score.toFixed(1), offsets.map((d) => [24, 36, 48].map((o) => dimensionClearance(clearance, pen, a, b, d, o * g, text, g).toFixed(1)).join('/')).join(' | '));
+				if (best.score >= 1.5) break;
+			}
 			if (best.score > -1.5)
 				drawDimension(pen, clearance, a, b, best.dir, best.off, text, { t: g });
 		}

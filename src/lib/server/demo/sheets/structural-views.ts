@@ -4,7 +4,7 @@ import type { SheetWeld } from './page';
 import { pt, type Pen, type Pt } from './pen';
 import type { Units } from './pipe-data';
 import { chooseScale, steelLength, weightText } from './steel-data';
-import type { Member } from './structural';
+import type { Member } from './structural-plan';
 import { drawDimension } from './symbols';
 import { drawWeldList } from './tables';
 import type { DemoSheetSpec } from './types';
@@ -161,24 +161,21 @@ function drawSection(pen: Pen, member: Member, units: Units, box: Rect, t: numbe
 	);
 	const tfText = units === 'imperial' ? `tf = ${(s.tf / 25.4).toFixed(3)}"` : `tf = ${s.tf}`;
 	const twText = units === 'imperial' ? `tw = ${(s.tw / 25.4).toFixed(3)}"` : `tw = ${s.tw}`;
-	pen.line(pt(cx - bf / 2 + 6 * t, bottom + tf / 2), pt(cx - bf / 2 - 16 * t, bottom - 14 * t), {
+	const labelX = cx - bf / 2 - 2 * t;
+	pen.line(pt(cx - bf / 2 + 4 * t, bottom + tf / 2), pt(labelX, bottom - 11 * t), {
 		width: 0.4 * t
 	});
-	pen.text(tfText, pt(cx - bf / 2 - 18 * t, bottom - 20 * t), { size: 5.8 * t, align: 'right' });
-	pen.line(pt(cx - tw / 2, cy - d * 0.15), pt(cx - bf / 2 - 10 * t, cy - d * 0.05), {
+	pen.text(tfText, pt(labelX, bottom - 14 * t), { size: 5.8 * t, align: 'right' });
+	pen.line(pt(cx - tw / 2, bottom + tf + (d - 2 * tf) * 0.2), pt(labelX, bottom - 21 * t), {
 		width: 0.4 * t
 	});
-	pen.text(twText, pt(cx - bf / 2 - 12 * t, cy - d * 0.05), {
-		size: 5.8 * t,
-		align: 'right',
-		valign: 'middle'
-	});
-	pen.text(`${s.name} ${s.grade}`, pt(cx, bottom - 26 * t), {
+	pen.text(twText, pt(labelX, bottom - 24 * t), { size: 5.8 * t, align: 'right' });
+	pen.text(`${s.name} ${s.grade}`, pt(cx, bottom - 38 * t), {
 		size: 6.5 * t,
 		bold: true,
 		align: 'center'
 	});
-	viewTitle(pen, pt(cx, bottom - 52 * t), 'SECTION A-A', scale.label, t);
+	viewTitle(pen, pt(cx, bottom - 62 * t), 'SECTION A-A', scale.label, t);
 }
 
 function drawPlateView(pen: Pen, member: Member, units: Units, box: Rect, t: number): void {

@@ -163,9 +163,9 @@ export function drawDimension(
 		{ fill: 1 }
 	);
 	pen.text(text, textCentre, { size, align: 'center', valign: 'middle', angle, gray: 0 });
-	clearance.segment(a1, b1, 1.5 * t);
-	clearance.segment(add(a, mul(o, gap)), a1, 0.5);
-	clearance.segment(add(b, mul(o, gap)), b1, 0.5);
+	clearance.segment(a1, b1, 1.5 * t, 'line');
+	clearance.segment(add(a, mul(o, gap)), a1, 0.5, 'line');
+	clearance.segment(add(b, mul(o, gap)), b1, 0.5, 'line');
 	clearance.segment(add(textCentre, mul(dir, -halfW)), add(textCentre, mul(dir, halfW)), halfH);
 }
 
@@ -188,14 +188,19 @@ export function dimensionClearance(
 	const size = 6 * t;
 	const w = pen.textWidth(text, size);
 	const mid = add(mul(add(a1, b1), 0.5), mul(perp(dir), size * 0.75));
-	const line = clearance.alongSegment(add(a1, mul(along, 4)), sub(b1, mul(along, 4)), 1.5 * t);
+	const line = clearance.alongSegment(
+		add(a1, mul(along, 4)),
+		sub(b1, mul(along, 4)),
+		1.5 * t,
+		'dimension'
+	);
 	const label = clearance.alongSegment(
 		add(mid, mul(dir, -w / 2)),
 		add(mid, mul(dir, w / 2)),
 		size * 0.6
 	);
-	const extA = clearance.alongSegment(add(a, mul(o, 8 * t)), a1, 0.3);
-	const extB = clearance.alongSegment(add(b, mul(o, 8 * t)), b1, 0.3);
+	const extA = clearance.alongSegment(add(a, mul(o, 8 * t)), a1, 0.3, 'extension');
+	const extB = clearance.alongSegment(add(b, mul(o, 8 * t)), b1, 0.3, 'extension');
 	return Math.min(line, label, extA, extB);
 }
 
