@@ -43,7 +43,9 @@ export default defineConfig({
 			DATABASE_URL: 'test-results/e2e-data/tacksheet.db',
 			UPLOADS_DIR: 'test-results/e2e-data/uploads',
 			AUTH_SECRET: 'e2e-secret-not-for-production-0123456789abcdef',
-			TACKSHEET_DEMO: '1'
+			TACKSHEET_DEMO: '1',
+			// Small enough that the over-limit test stays quick.
+			UPLOAD_MAX_MB: '25'
 		}
 	}
 });

@@ -1,13 +1,21 @@
-// The production server: SvelteKit's adapter-node handler on a plain Node http server.
-// Kept as our own entry so routes that must skip SvelteKit (streamed uploads) can be added
-// in front of the handler, and so shutdown is orderly.
+// The production server: SvelteKit's adapter-node handler on a plain Node http server, with
+// drawing uploads streamed to disk in front of it (server/upload-stage.js), since SvelteKit
+// and adapter-node's body limit would hold a whole upload in memory.
 import http from 'node:http';
+import { createUploadStage } from './server/upload-stage.js';
 
 export async function startServer() {
 	const { handler } = await import('./build/handler.js');
+	const stage = createUploadStage({
+		uploadsDir: process.env.UPLOADS_DIR || './uploads',
+		maxMb: Number(process.env.UPLOAD_MAX_MB) || 200
+	});
 	const port = Number(process.env.PORT || 3000);
 	const host = process.env.HOST || '0.0.0.0';
-	const server = http.createServer((req, res) => handler(req, res));
+	const server = http.createServer((req, res) => stage(req, res, () => handler(req, res)));
+	// Big drawings over a site connection take a while: no request timeout, but idle sockets close.
+	server.requestTimeout = 0;
+	server.headersTimeout = 60_000;
 	await new Promise((resolve, reject) => {
 		server.once('error', reject);
 		server.listen(port, host, () => resolve(undefined));

@@ -1,9 +1,29 @@
 import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
-import { defineConfig } from 'vitest/config';
+import { defineConfig, type Plugin } from 'vitest/config';
+import { createUploadStage } from './server/upload-stage.js';
+
+/** The same streamed uploads in `vite dev` and `vite preview` as in the production server. */
+function uploadStage(): Plugin {
+	const stage = () =>
+		createUploadStage({
+			uploadsDir: process.env.UPLOADS_DIR || './uploads',
+			maxMb: Number(process.env.UPLOAD_MAX_MB) || 200
+		});
+	return {
+		name: 'tacksheet-upload-stage',
+		configureServer(server) {
+			if (process.env.VITEST) return;
+			server.middlewares.use(stage());
+		},
+		configurePreviewServer(server) {
+			server.middlewares.use(stage());
+		}
+	};
+}
 
 export default defineConfig({
-	plugins: [tailwindcss(), sveltekit()],
+	plugins: [tailwindcss(), uploadStage(), sveltekit()],
 	test: {
 		include: ['src/**/*.test.ts', 'tests/integration/**/*.test.ts'],
 		environment: 'node',

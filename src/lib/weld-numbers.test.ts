@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { nextWeldNumber, weldNumberSortKey } from './weld-numbers';
+import { insertedWeldNumber, nextWeldNumber, weldNumberSortKey } from './weld-numbers';
 
 describe('weld number order', () => {
 	// Common practice: a joint added between 5 and 6 becomes 5A, 5B, so existing numbers never move.
@@ -15,5 +15,16 @@ describe('weld number order', () => {
 		expect(nextWeldNumber(['1', '2', '7', '3A', 'FW-4'])).toBe('8');
 		expect(nextWeldNumber(['1', 'FW-4', 'FW-9'], 'FW-')).toBe('FW-10');
 		expect(nextWeldNumber([])).toBe('1');
+	});
+
+	// Common practice (published contractor numbering procedures): inserted joints take the
+	// next letter after the number before them; R (repair) and M (modified) are not used.
+	it('inserts 5A, 5B … after 5, skipping the letters that mean repair and modified', () => {
+		expect(insertedWeldNumber('5', ['4', '5', '6'])).toBe('5A');
+		expect(insertedWeldNumber('5', ['5', '5A'])).toBe('5B');
+		expect(insertedWeldNumber('5A', ['5', '5A', '5B'])).toBe('5C');
+		const upToQ = 'ABCDEFGHJKLNPQ'.split('').map((l) => `5${l}`);
+		expect(insertedWeldNumber('5', upToQ)).toBe('5S');
+		expect(insertedWeldNumber('FW-3', ['FW-3'])).toBe('FW-3A');
 	});
 });

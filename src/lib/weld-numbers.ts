@@ -24,3 +24,20 @@ export function nextWeldNumber(used: readonly string[], prefix = ''): string {
 	}
 	return `${prefix}${highest + 1}`;
 }
+
+/** Letters for joints inserted between two numbers; R and M mean repair and modified. */
+const INSERT_LETTERS = 'ABCDEFGHJKLNPQSTUVWXYZ'.split('');
+
+/**
+ * The number for a joint inserted after `after`: `5` → `5A`, then `5B` … so existing numbers
+ * never move. Null when every letter is taken.
+ */
+export function insertedWeldNumber(after: string, used: readonly string[]): string | null {
+	const base = after.trim().replace(/[A-Z]+$/i, '');
+	const taken = new Set(used.map((n) => n.trim().toUpperCase()));
+	for (const letter of INSERT_LETTERS) {
+		const candidate = `${base}${letter}`;
+		if (!taken.has(candidate.toUpperCase())) return candidate;
+	}
+	return null;
+}

@@ -91,7 +91,31 @@ function expected(rule: Rule, principal: Principal | null, projectId: number): E
 	return can(principal, rule.action, projectId) ? 'allowed' : 'forbidden';
 }
 
+/** A stream of server-sent events never ends: read its status and headers, then hang up. */
+async function askStream(client: APIRequestContext, url: string) {
+	const { cookies } = await client.storageState();
+	const abort = new AbortController();
+	const response = await fetch(BASE_URL + url, {
+		headers: {
+			cookie: cookies.map((c) => `${c.name}=${c.value}`).join('; '),
+			accept: 'text/event-stream'
+		},
+		redirect: 'manual',
+		signal: abort.signal
+	});
+	abort.abort();
+	return {
+		status: () => response.status,
+		headers: () =>
+			({ location: response.headers.get('location') ?? undefined }) as Record<
+				string,
+				string | undefined
+			>
+	};
+}
+
 async function ask(client: APIRequestContext, e: Endpoint, url: string) {
+	if (e.routeId.endsWith('/events')) return askStream(client, url);
 	const headers = {
 		origin: BASE_URL,
 		accept: e.routeId.startsWith('/api/') ? 'application/json' : 'text/html'
@@ -139,8 +163,30 @@ const callers: { label: string; email: string | null; principal: Principal | nul
 	}))
 ];
 
+/** Real ids in each demo project, so every route parameter names something that exists. */
+async function demoIds(): Promise<Record<number, Record<string, string>>> {
+	const admin = await signedInClient('admin@tacksheet.test');
+	const ids: Record<number, Record<string, string>> = {};
+	for (const projectId of [1, 2]) {
+		const first = (await (await admin.get(`/api/projects/${projectId}/drawings?pageSize=1`)).json())
+			.items[0];
+		const pin = (await (await admin.get(`/api/revisions/${first.currentRevision.id}/pins`)).json())
+			.items[0];
+		ids[projectId] = {
+			projectId: String(projectId),
+			drawingId: String(first.id),
+			revisionId: String(first.currentRevision.id),
+			jointId: String(pin.jointId),
+			pinId: String(pin.pinId)
+		};
+	}
+	await admin.dispose();
+	return ids;
+}
+
 for (const caller of callers) {
 	test(`route matrix: ${caller.label}`, async () => {
+		const ids = await demoIds();
 		const client = caller.email
 			? await signedInClient(caller.email)
 			: await newRequest.newContext({ baseURL: BASE_URL });
@@ -152,7 +198,7 @@ for (const caller of callers) {
 				if (rule.access === 'public' && e.method !== 'GET') continue;
 				if (projectId === 2 && rule.access !== 'project') continue;
 				const want = expected(rule, caller.principal, projectId);
-				const url = urlOf(e, { projectId: String(projectId) });
+				const url = urlOf(e, ids[projectId]);
 				const response = await ask(client, e, url);
 				check(
 					response.status(),

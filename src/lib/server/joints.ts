@@ -1,21 +1,46 @@
-/** Joints: the weld register. Their state is derived here from the records and cached. */
-import { and, asc, eq, isNull } from 'drizzle-orm';
+/**
+ * Joints: the weld register. A joint is created by placing its pin on a sheet; its state is
+ * derived from the records and cached in the same transaction as every change. Every write
+ * names the version it was based on; a stale one is refused with 409.
+ */
+import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
+import * as audit from './audit';
+import * as events from './events';
 import {
 	deriveJointState,
+	displayWeldNumber,
 	parseNdeRequirement,
+	STATE_LOOKS,
 	type DerivedState,
 	type NdeMethod
 } from '$lib/joint-state';
+import { insertedWeldNumber, nextWeldNumber, weldNumberSortKey } from '$lib/weld-numbers';
+import { jointLengths, type JointFields } from '$lib/schemas/joint';
+import type { UnitSystem } from './db/schema';
 
 type Reader = Pick<Db, 'select'>;
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export class JointError extends Error {
+	constructor(
+		message: string,
+		readonly status: 400 | 404 | 409,
+		readonly field?: string
+	) {
+		super(message);
+	}
+}
+
+const j = schema.joints;
+const p = schema.pins;
 
 /** Everything deriveJointState needs about one joint, read in one go. */
 export function stateInput(jointId: number, tx: Reader = db) {
 	const joint = tx
-		.select({ voidedAt: schema.joints.voidedAt, ndeRequired: schema.joints.ndeRequired })
-		.from(schema.joints)
-		.where(eq(schema.joints.id, jointId))
+		.select({ voidedAt: j.voidedAt, ndeRequired: j.ndeRequired })
+		.from(j)
+		.where(eq(j.id, jointId))
 		.get();
 	if (!joint) return undefined;
 	const selections = tx
@@ -62,20 +87,536 @@ export function refreshState(
 	if (!input) return undefined;
 	const derived = deriveJointState(input);
 	const current = tx
-		.select({ state: schema.joints.state, repairCycle: schema.joints.repairCycle })
-		.from(schema.joints)
-		.where(eq(schema.joints.id, jointId))
+		.select({ state: j.state, repairCycle: j.repairCycle })
+		.from(j)
+		.where(eq(j.id, jointId))
 		.get();
 	if (current && (current.state !== derived.state || current.repairCycle !== derived.repairCycle)) {
-		tx.update(schema.joints)
+		tx.update(j)
 			.set({
 				state: derived.state,
 				repairCycle: derived.repairCycle,
 				stateSince: at,
 				updatedAt: at
 			})
-			.where(eq(schema.joints.id, jointId))
+			.where(eq(j.id, jointId))
 			.run();
 	}
 	return derived;
+}
+
+// Reading -------------------------------------------------------------------------------
+
+/** The pins of one revision with their joints' states, as the overlay draws them. */
+export function pinsOf(revisionId: number) {
+	return db
+		.select({
+			pinId: p.id,
+			jointId: j.id,
+			number: j.number,
+			repairCycle: j.repairCycle,
+			kind: j.kind,
+			location: j.location,
+			pageIndex: p.pageIndex,
+			x: p.x,
+			y: p.y,
+			state: j.state,
+			needsReview: p.needsReview,
+			version: j.version
+		})
+		.from(p)
+		.innerJoin(j, eq(j.id, p.jointId))
+		.where(eq(p.revisionId, revisionId))
+		.orderBy(asc(j.sortKey))
+		.all()
+		.map((row) => ({ ...row, label: displayWeldNumber(row.number, row.repairCycle) }));
+}
+
+export function row(jointId: number, tx: Reader = db) {
+	return tx.select().from(j).where(eq(j.id, jointId)).get();
+}
+
+function projectUnits(projectId: number, tx: Reader = db): UnitSystem {
+	return (
+		tx
+			.select({ units: schema.projects.units })
+			.from(schema.projects)
+			.where(eq(schema.projects.id, projectId))
+			.get()?.units ?? 'imperial'
+	);
+}
+
+/** The joint with its state, next step, pins on every revision, and its whole history. */
+export function detail(jointId: number) {
+	const joint = row(jointId);
+	if (!joint) return undefined;
+	const look = STATE_LOOKS[joint.state];
+	const pins = db
+		.select({
+			pinId: p.id,
+			revisionId: p.revisionId,
+			label: schema.revisions.label,
+			status: schema.revisions.status,
+			pageIndex: p.pageIndex,
+			x: p.x,
+			y: p.y,
+			needsReview: p.needsReview
+		})
+		.from(p)
+		.innerJoin(schema.revisions, eq(schema.revisions.id, p.revisionId))
+		.where(eq(p.jointId, jointId))
+		.orderBy(desc(schema.revisions.uploadedAt))
+		.all();
+	const welds = db
+		.select({
+			id: schema.welds.id,
+			repairCycle: schema.welds.repairCycle,
+			weldedOn: schema.welds.weldedOn,
+			wps: schema.welds.wps,
+			process: schema.welds.process,
+			recordedAt: schema.welds.recordedAt,
+			overrideReason: schema.welds.overrideReason
+		})
+		.from(schema.welds)
+		.where(eq(schema.welds.jointId, jointId))
+		.orderBy(asc(schema.welds.repairCycle))
+		.all();
+	const stamps = welds.length
+		? db
+				.select({
+					weldId: schema.weldWelders.weldId,
+					pass: schema.weldWelders.pass,
+					stamp: schema.welders.stamp,
+					name: schema.welders.name
+				})
+				.from(schema.weldWelders)
+				.innerJoin(schema.welders, eq(schema.welders.id, schema.weldWelders.welderId))
+				.where(
+					inArray(
+						schema.weldWelders.weldId,
+						welds.map((w) => w.id)
+					)
+				)
+				.all()
+		: [];
+	const inspections = db
+		.select({
+			id: schema.inspections.id,
+			stage: schema.inspections.stage,
+			method: schema.inspections.method,
+			repairCycle: schema.inspections.repairCycle,
+			readings: schema.inspections.readings,
+			verdict: schema.inspections.verdict,
+			findings: schema.inspections.findings,
+			criteriaSetId: schema.inspections.criteriaSetId,
+			criteriaSetVersion: schema.inspections.criteriaSetVersion,
+			decision: schema.inspections.decision,
+			reason: schema.inspections.reason,
+			againstVerdict: schema.inspections.againstVerdict,
+			reportNo: schema.inspections.reportNo,
+			technician: schema.inspections.technician,
+			inspectedAt: schema.inspections.inspectedAt,
+			supersedesId: schema.inspections.supersedesId,
+			inspector: schema.users.name
+		})
+		.from(schema.inspections)
+		.innerJoin(schema.users, eq(schema.users.id, schema.inspections.inspectorId))
+		.where(eq(schema.inspections.jointId, jointId))
+		.orderBy(asc(schema.inspections.inspectedAt), asc(schema.inspections.id))
+		.all();
+	const pinIds = pins.map((pin) => String(pin.pinId));
+	const changes = db
+		.select({
+			at: schema.auditEvents.at,
+			action: schema.auditEvents.action,
+			entity: schema.auditEvents.entity,
+			before: schema.auditEvents.before,
+			after: schema.auditEvents.after,
+			by: schema.users.name
+		})
+		.from(schema.auditEvents)
+		.leftJoin(schema.users, eq(schema.users.id, schema.auditEvents.userId))
+		.where(
+			or(
+				and(
+					eq(schema.auditEvents.entity, 'joint'),
+					eq(schema.auditEvents.entityId, String(jointId))
+				),
+				pinIds.length
+					? and(eq(schema.auditEvents.entity, 'pin'), inArray(schema.auditEvents.entityId, pinIds))
+					: undefined
+			)
+		)
+		.orderBy(asc(schema.auditEvents.at), asc(schema.auditEvents.id))
+		.all();
+	return {
+		...joint,
+		label: displayWeldNumber(joint.number, joint.repairCycle),
+		stateLabel: look.label,
+		next: look.next,
+		owner: look.owner,
+		pins,
+		welds: welds.map((w) => ({
+			...w,
+			welders: stamps
+				.filter((s) => s.weldId === w.id)
+				.map(({ pass, stamp, name }) => ({ pass, stamp, name }))
+		})),
+		inspections,
+		changes
+	};
+}
+
+// Writing -------------------------------------------------------------------------------
+
+function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
+	const result = jointLengths(fields, units);
+	if (!result.ok) throw new JointError(result.message, 400, result.field);
+	return result.values;
+}
+
+function numbersOf(drawingId: number, tx: Reader): string[] {
+	return tx
+		.select({ number: j.number })
+		.from(j)
+		.where(eq(j.drawingId, drawingId))
+		.all()
+		.map((r) => r.number);
+}
+
+export interface PlacePin {
+	revisionId: number;
+	pageIndex: number;
+	x: number;
+	y: number;
+	number?: string;
+	insertAfter?: string;
+	joint: Partial<JointFields>;
+}
+
+/** Place a pin: a new joint at that point with the next weld number, or the one asked for. */
+export function place(input: PlacePin, userId: string) {
+	const revision = db
+		.select({
+			id: schema.revisions.id,
+			status: schema.revisions.status,
+			pageCount: schema.revisions.pageCount,
+			drawingId: schema.drawings.id,
+			projectId: schema.drawings.projectId,
+			line: schema.drawings.line,
+			rule: schema.projects.weldNumberRule,
+			criteria: schema.projects.defaultCriteriaSet,
+			units: schema.projects.units
+		})
+		.from(schema.revisions)
+		.innerJoin(schema.drawings, eq(schema.drawings.id, schema.revisions.drawingId))
+		.innerJoin(schema.projects, eq(schema.projects.id, schema.drawings.projectId))
+		.where(eq(schema.revisions.id, input.revisionId))
+		.get();
+	if (!revision) throw new JointError('There is no such revision.', 404);
+	if (revision.status !== 'current')
+		throw new JointError('Joints are placed on the current revision only.', 409);
+	if (input.pageIndex >= revision.pageCount)
+		throw new JointError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
+	const location = input.joint.location ?? 'shop';
+	const lengths = lengthsOrThrow(input.joint, revision.units);
+	return db.transaction((tx) => {
+		const used = numbersOf(revision.drawingId, tx);
+		let number = input.number;
+		if (!number && input.insertAfter) {
+			number = insertedWeldNumber(input.insertAfter, used) ?? undefined;
+			if (!number)
+				throw new JointError(
+					`No letter is left to insert after ${input.insertAfter}.`,
+					409,
+					'insertAfter'
+				);
+		}
+		number ??= nextWeldNumber(
+			used,
+			location === 'field' ? revision.rule.fieldPrefix : revision.rule.shopPrefix
+		);
+		if (used.some((n) => n.toUpperCase() === number!.toUpperCase())) {
+			throw new JointError(
+				`Weld number ${number} is already used on this drawing (numbers are never reused, also after a joint is voided).`,
+				409,
+				'number'
+			);
+		}
+		const now = Date.now();
+		const joint = tx
+			.insert(j)
+			.values({
+				projectId: revision.projectId,
+				drawingId: revision.drawingId,
+				number,
+				sortKey: weldNumberSortKey(number),
+				kind: input.joint.kind ?? 'butt',
+				location,
+				line: input.joint.line ?? revision.line,
+				spool: input.joint.spool ?? '',
+				material: input.joint.material ?? '',
+				wps: input.joint.wps ?? '',
+				criteriaSetId: input.joint.criteriaSetId ?? revision.criteria,
+				ndeRequired: input.joint.ndeRequired ?? '',
+				...lengths,
+				createdBy: userId,
+				createdAt: now,
+				updatedAt: now,
+				stateSince: now
+			})
+			.returning()
+			.get();
+		const pin = tx
+			.insert(p)
+			.values({
+				jointId: joint.id,
+				revisionId: revision.id,
+				pageIndex: input.pageIndex,
+				x: input.x,
+				y: input.y,
+				createdBy: userId
+			})
+			.returning()
+			.get();
+		audit.record(
+			{
+				action: 'create',
+				entity: 'joint',
+				entityId: joint.id,
+				projectId: revision.projectId,
+				userId,
+				after: {
+					number,
+					kind: joint.kind,
+					revisionId: revision.id,
+					pageIndex: pin.pageIndex,
+					x: pin.x,
+					y: pin.y
+				}
+			},
+			tx
+		);
+		events.publish(revision.projectId, {
+			type: 'pin',
+			action: 'created',
+			revisionId: revision.id,
+			jointId: joint.id,
+			pinId: pin.id,
+			by: userId
+		});
+		return { joint, pin };
+	});
+}
+
+function lockedJoint(tx: Tx, jointId: number, version: number) {
+	const joint = row(jointId, tx);
+	if (!joint) throw new JointError('There is no such joint.', 404);
+	if (joint.version !== version) {
+		throw new JointError(
+			`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${version}). It has been reloaded; check it and try again.`,
+			409,
+			'version'
+		);
+	}
+	return joint;
+}
+
+/** Change what the joint card says about a joint. */
+export function update(
+	jointId: number,
+	changes: Partial<JointFields> & { number?: string; version: number },
+	userId: string
+) {
+	return db.transaction((tx) => {
+		const joint = lockedJoint(tx, jointId, changes.version);
+		if (joint.voidedAt)
+			throw new JointError(`Joint ${joint.number} is void and can no longer change.`, 409);
+		const { version: _version, size, thickness, requiredSize, number, ...plain } = changes;
+		const lengths = lengthsOrThrow(
+			{ size, thickness, requiredSize },
+			projectUnits(joint.projectId, tx)
+		);
+		if (number && number !== joint.number) {
+			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
+				throw new JointError(
+					`Weld number ${number} is already used on this drawing.`,
+					409,
+					'number'
+				);
+			}
+		}
+		const values = {
+			...plain,
+			...lengths,
+			...(number ? { number, sortKey: weldNumberSortKey(number) } : {})
+		};
+		const before = Object.fromEntries(
+			Object.keys(values).map((k) => [k, joint[k as keyof typeof joint]])
+		);
+		const updated = tx
+			.update(j)
+			.set({ ...values, version: joint.version + 1, updatedAt: Date.now() })
+			.where(eq(j.id, jointId))
+			.returning()
+			.get();
+		refreshState(jointId, tx);
+		audit.record(
+			{
+				action: 'update',
+				entity: 'joint',
+				entityId: jointId,
+				projectId: joint.projectId,
+				userId,
+				before,
+				after: values
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'joint',
+			action: 'updated',
+			jointId,
+			drawingId: joint.drawingId,
+			by: userId
+		});
+		return updated;
+	});
+}
+
+/** Void a joint: it stays in the log, greyed, and its number is never used again. */
+export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
+	return db.transaction((tx) => {
+		const joint = lockedJoint(tx, jointId, version);
+		if (joint.voidedAt) throw new JointError(`Joint ${joint.number} is already void.`, 409);
+		const now = Date.now();
+		tx.update(j)
+			.set({
+				voidReason: reason,
+				voidedAt: now,
+				voidedBy: userId,
+				version: joint.version + 1,
+				updatedAt: now
+			})
+			.where(eq(j.id, jointId))
+			.run();
+		tx.update(p).set({ needsReview: false }).where(eq(p.jointId, jointId)).run();
+		refreshState(jointId, tx, now);
+		audit.record(
+			{
+				action: 'void',
+				entity: 'joint',
+				entityId: jointId,
+				projectId: joint.projectId,
+				userId,
+				before: { state: joint.state },
+				after: { reason }
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'joint',
+			action: 'voided',
+			jointId,
+			drawingId: joint.drawingId,
+			by: userId
+		});
+		return row(jointId, tx)!;
+	});
+}
+
+function pinWithJoint(tx: Tx, pinId: number) {
+	const pin = tx.select().from(p).where(eq(p.id, pinId)).get();
+	if (!pin) throw new JointError('There is no such pin.', 404);
+	return pin;
+}
+
+/** Move a pin (drag on the sheet); confirms it when it was waiting for review. */
+export function movePin(
+	pinId: number,
+	to: { x: number; y: number; pageIndex?: number; version: number },
+	userId: string
+) {
+	return db.transaction((tx) => {
+		const pin = pinWithJoint(tx, pinId);
+		const joint = lockedJoint(tx, pin.jointId, to.version);
+		if (joint.voidedAt)
+			throw new JointError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
+		const now = Date.now();
+		const moved = tx
+			.update(p)
+			.set({
+				x: to.x,
+				y: to.y,
+				pageIndex: to.pageIndex ?? pin.pageIndex,
+				needsReview: false,
+				updatedAt: now
+			})
+			.where(eq(p.id, pinId))
+			.returning()
+			.get();
+		const updated = tx
+			.update(j)
+			.set({ version: joint.version + 1, updatedAt: now })
+			.where(eq(j.id, joint.id))
+			.returning()
+			.get();
+		audit.record(
+			{
+				action: 'pin_move',
+				entity: 'pin',
+				entityId: pinId,
+				projectId: joint.projectId,
+				userId,
+				before: { pageIndex: pin.pageIndex, x: pin.x, y: pin.y },
+				after: { pageIndex: moved.pageIndex, x: moved.x, y: moved.y }
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'pin',
+			action: 'moved',
+			revisionId: pin.revisionId,
+			jointId: joint.id,
+			pinId,
+			by: userId
+		});
+		return { pin: moved, version: updated.version };
+	});
+}
+
+/** Confirm a pin carried to a new revision: the joint is where it was. */
+export function confirmPin(pinId: number, version: number, userId: string) {
+	return db.transaction((tx) => {
+		const pin = pinWithJoint(tx, pinId);
+		const joint = lockedJoint(tx, pin.jointId, version);
+		const now = Date.now();
+		tx.update(p).set({ needsReview: false, updatedAt: now }).where(eq(p.id, pinId)).run();
+		const updated = tx
+			.update(j)
+			.set({ version: joint.version + 1, updatedAt: now })
+			.where(eq(j.id, joint.id))
+			.returning()
+			.get();
+		audit.record(
+			{
+				action: 'pin_confirm',
+				entity: 'pin',
+				entityId: pinId,
+				projectId: joint.projectId,
+				userId,
+				after: { revisionId: pin.revisionId }
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'pin',
+			action: 'reviewed',
+			revisionId: pin.revisionId,
+			jointId: joint.id,
+			pinId,
+			by: userId
+		});
+		return { version: updated.version };
+	});
 }

@@ -40,6 +40,14 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/(app)/projects': { GET: SIGNED_IN },
 	'/(app)/projects/[projectId=id]': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/drawings': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/drawings/upload': { GET: project('drawing.upload') },
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
+		GET: project('project.read')
+	},
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/compare': {
+		GET: project('project.read')
+	},
 
 	'/(app)/account': { GET: SIGNED_IN, actions: { password: SIGNED_IN } },
 	'/(app)/account/tokens': { GET: SIGNED_IN, actions: { create: SIGNED_IN, revoke: SIGNED_IN } },
@@ -68,6 +76,28 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/me': { GET: SIGNED_IN },
 	'/api/projects': { GET: SIGNED_IN },
 	'/api/tokens': { GET: SIGNED_IN, POST: SIGNED_IN },
+	'/api/projects/[projectId=id]/drawings': {
+		GET: project('project.read'),
+		POST: project('drawing.upload')
+	},
+	'/api/projects/[projectId=id]/drawings/[drawingId=id]/revisions': {
+		GET: project('project.read'),
+		POST: project('drawing.upload')
+	},
+	'/api/projects/[projectId=id]/uploads/permit': { GET: project('drawing.upload') },
+	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
+	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
+	'/api/revisions/[revisionId=id]/pins': {
+		GET: project('project.read'),
+		POST: project('pin.place')
+	},
+	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
+	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
+	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
+	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
+	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
+	'/api/acceptance/evaluate': { POST: SIGNED_IN },
+	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }
 };
 

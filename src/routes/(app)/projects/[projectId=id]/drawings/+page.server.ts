@@ -1,7 +1,20 @@
 import * as drawings from '$lib/server/drawings';
+import { queryOf } from '$lib/server/api';
+import { drawingListQuery } from '$lib/schemas/drawing';
+import { can } from '$lib/permissions';
 import type { PageServerLoad } from './$types';
 
-export const load = (async ({ parent }) => {
+export const load = (async ({ locals, url, parent }) => {
 	const { project } = await parent();
-	return { title: `Drawings · ${project.code}`, drawings: drawings.listWithCurrent(project.id) };
+	const query = drawingListQuery.parse(queryOf(url));
+	const page = drawings.list(project.id, query);
+	const history = drawings.historyFor(page.items.map((item) => item.id));
+	return {
+		title: `Drawings · ${project.code}`,
+		query,
+		...page,
+		items: page.items.map((item) => ({ ...item, history: history.get(item.id) ?? [] })),
+		areas: drawings.areas(project.id),
+		canUpload: can(locals.user!, 'drawing.upload', project.id)
+	};
 }) satisfies PageServerLoad;

@@ -1,0 +1,170 @@
+/**
+ * The pins of the revision on screen, kept current: fetched from the API, refreshed when the
+ * project's event stream says someone changed something (polling when the stream is down),
+ * and changed through the API with the joint's version, reloading on a 409.
+ */
+import type { JointState } from '$lib/joint-state';
+
+export interface PinItem {
+	pinId: number;
+	jointId: number;
+	number: string;
+	label: string;
+	repairCycle: number;
+	kind: 'butt' | 'fillet' | 'socket' | 'branch';
+	location: 'shop' | 'field';
+	pageIndex: number;
+	x: number;
+	y: number;
+	state: JointState;
+	needsReview: boolean;
+	version: number;
+}
+
+export interface ApiFailure {
+	status: number;
+	error: string;
+	field?: string;
+}
+
+const POLL_MS = 15_000;
+
+async function call<T>(url: string, init: RequestInit = {}): Promise<T> {
+	const response = await fetch(url, {
+		...init,
+		headers: {
+			'content-type': 'application/json',
+			accept: 'application/json',
+			...(init.headers ?? {})
+		}
+	});
+	const body = await response.json().catch(() => ({}));
+	if (!response.ok) {
+		throw {
+			status: response.status,
+			error: body.error ?? `The server answered ${response.status}.`,
+			field: body.field
+		} satisfies ApiFailure;
+	}
+	return body as T;
+}
+
+export function isApiFailure(value: unknown): value is ApiFailure {
+	return typeof value === 'object' && value !== null && 'status' in value && 'error' in value;
+}
+
+export class PinStore {
+	items = $state<PinItem[]>([]);
+	loaded = $state(false);
+	live = $state(false);
+	error = $state('');
+	private source: EventSource | null = null;
+	private poll: ReturnType<typeof setInterval> | null = null;
+	private refreshing: Promise<void> | null = null;
+
+	constructor(
+		readonly projectId: number,
+		readonly revisionId: number
+	) {}
+
+	byId(pinId: number | null): PinItem | undefined {
+		return pinId == null ? undefined : this.items.find((p) => p.pinId === pinId);
+	}
+
+	async refresh(): Promise<void> {
+		this.refreshing ??= call<{ items: PinItem[] }>(`/api/revisions/${this.revisionId}/pins`)
+			.then(({ items }) => {
+				this.items = items;
+				this.loaded = true;
+				this.error = '';
+			})
+			.catch((failure: unknown) => {
+				this.error = isApiFailure(failure)
+					? failure.error
+					: 'The pins could not be loaded. Check the connection.';
+			})
+			.finally(() => (this.refreshing = null));
+		return this.refreshing;
+	}
+
+	/** Follow the project's changes; returns the function that stops following. */
+	follow(): () => void {
+		this.refresh();
+		const startPolling = () => {
+			this.poll ??= setInterval(() => this.refresh(), POLL_MS);
+		};
+		if (typeof EventSource === 'undefined') startPolling();
+		else {
+			this.source = new EventSource(`/api/projects/${this.projectId}/events`);
+			this.source.onopen = () => {
+				this.live = true;
+				if (this.poll) clearInterval(this.poll);
+				this.poll = null;
+				// Changes made while the stream was down.
+				this.refresh();
+			};
+			this.source.onmessage = () => this.refresh();
+			this.source.onerror = () => {
+				this.live = false;
+				startPolling();
+			};
+		}
+		return () => {
+			this.source?.close();
+			this.source = null;
+			if (this.poll) clearInterval(this.poll);
+			this.poll = null;
+		};
+	}
+
+	async place(input: {
+		pageIndex: number;
+		x: number;
+		y: number;
+		insertAfter?: string;
+		joint: Record<string, string>;
+	}) {
+		const created = await call<{ joint: { id: number; number: string }; pin: { id: number } }>(
+			`/api/revisions/${this.revisionId}/pins`,
+			{
+				method: 'POST',
+				body: JSON.stringify(input)
+			}
+		);
+		await this.refresh();
+		return created;
+	}
+
+	/** Move a pin; on a stale version the pins are reloaded and the failure rethrown. */
+	async move(pin: PinItem, x: number, y: number): Promise<{ version: number }> {
+		const previous = { x: pin.x, y: pin.y };
+		Object.assign(pin, { x, y });
+		try {
+			const moved = await call<{ version: number }>(`/api/pins/${pin.pinId}`, {
+				method: 'PATCH',
+				body: JSON.stringify({ x, y, version: pin.version })
+			});
+			pin.version = moved.version;
+			pin.needsReview = false;
+			return moved;
+		} catch (failure) {
+			Object.assign(pin, previous);
+			await this.refresh();
+			throw failure;
+		}
+	}
+
+	async confirm(pin: PinItem) {
+		const done = await call<{ version: number }>(`/api/pins/${pin.pinId}/confirm`, {
+			method: 'POST',
+			body: JSON.stringify({ version: pin.version })
+		}).catch(async (failure: unknown) => {
+			await this.refresh();
+			throw failure;
+		});
+		pin.version = done.version;
+		pin.needsReview = false;
+	}
+}
+
+export { call as callApi };

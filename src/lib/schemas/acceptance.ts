@@ -1,0 +1,68 @@
+/** The evaluation request: one zod schema shared by the API route, the joint forms and the tests. */
+import { z } from 'zod';
+import {
+	jointKinds,
+	loadings,
+	members,
+	readingIds,
+	stages,
+	stressDirections
+} from '$lib/acceptance';
+import type { UnitSystem } from '$lib/units';
+
+export const unitSystems = ['imperial', 'metric'] as const satisfies readonly UnitSystem[];
+
+/** A length as typed (`3/4 in`, `19 mm`), or a number of millimetres. */
+const jointLength = z.union([z.string().max(40), z.number()], {
+	error: 'Give a length as typed, such as "3/4 in" or "19 mm", or a number of millimetres.'
+});
+
+const choice = <T extends readonly [string, ...string[]]>(values: T, what: string) =>
+	z.enum(values, { error: `${what} must be one of ${values.join(', ')}.` });
+
+export const jointSchema = z.object(
+	{
+		kind: choice(jointKinds, 'The joint kind'),
+		thickness: jointLength.optional(),
+		requiredSize: jointLength.optional(),
+		weldLength: jointLength.optional(),
+		loading: choice(loadings, 'The loading').optional(),
+		member: choice(members, 'The member').optional(),
+		stress: choice(stressDirections, 'The stress direction').optional()
+	},
+	{ error: 'Describe the joint, at least its kind: { "kind": "butt" }.' }
+);
+
+/**
+ * Readings by id: a length or angle as typed, a number in mm or degrees, or yes/no for flags.
+ * An id the engine does not know is refused rather than ignored, so a misspelt reading cannot
+ * quietly drop out of a verdict.
+ */
+const readingValue = z.union([z.string().max(40), z.number(), z.boolean(), z.null()], {
+	error:
+		'Give a reading as typed ("3/32", "2.5 mm", "37.5°"), a number in mm or degrees, or true/false.'
+});
+
+export const readingsSchema = z.record(z.string(), readingValue).superRefine((readings, ctx) => {
+	for (const id of Object.keys(readings)) {
+		if ((readingIds as readonly string[]).includes(id)) continue;
+		ctx.addIssue({
+			code: 'custom',
+			path: [id],
+			message: `Unknown reading "${id}"; use one of: ${readingIds.join(', ')}.`
+		});
+	}
+});
+
+export const evaluateRequestSchema = z.object({
+	criteria: z
+		.string({ error: 'Name the criteria set, such as "aws-d1.1-static".' })
+		.trim()
+		.min(1, { error: 'Name the criteria set, such as "aws-d1.1-static".' }),
+	stage: choice(stages, 'The stage'),
+	units: choice(unitSystems, 'The units').default('imperial'),
+	joint: jointSchema,
+	readings: readingsSchema.default({})
+});
+
+export type EvaluateRequest = z.infer<typeof evaluateRequestSchema>;

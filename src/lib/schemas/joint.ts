@@ -1,0 +1,139 @@
+/**
+ * Inputs about joints and pins: one zod schema each, shared by the joint card, the API and
+ * the tests. Lengths arrive as typed (`3/8`, `9.5 mm`) and are read by the units module.
+ */
+import { z } from 'zod';
+import { builtInCriteriaSetIds } from '$lib/acceptance';
+import { outsideDiameterMm } from '$lib/pipe-sizes';
+import { parseLength, type UnitSystem } from '$lib/units';
+
+export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
+export const JOINT_LOCATIONS = ['shop', 'field'] as const;
+
+const text = (max: number) => z.string().trim().max(max);
+
+export const weldNumber = z
+	.string()
+	.trim()
+	.min(1, { error: 'Enter the weld number.' })
+	.max(24, { error: 'A weld number has at most 24 characters.' })
+	.regex(/^[A-Za-z0-9][A-Za-z0-9./-]*$/, {
+		error: 'Use letters, digits, "-", "/" or "." in a weld number.'
+	});
+
+export const jointFields = z.object({
+	kind: z.enum(JOINT_KINDS, { error: 'Choose butt, fillet, socket or branch.' }),
+	location: z.enum(JOINT_LOCATIONS, { error: 'Choose shop or field.' }),
+	line: text(120),
+	spool: text(60),
+	/** Nominal size (`6`, `NPS 6`, `DN150`) or an outside diameter with its unit. */
+	size: text(40),
+	thickness: text(40),
+	requiredSize: text(40),
+	material: text(120),
+	wps: text(60),
+	criteriaSetId: z.enum(builtInCriteriaSetIds as [string, ...string[]], {
+		error: 'Choose one of the criteria sets.'
+	}),
+	ndeRequired: text(40)
+});
+export type JointFields = z.infer<typeof jointFields>;
+
+export const createPinSchema = z.object({
+	pageIndex: z.number().int().min(0),
+	x: z.number().finite(),
+	y: z.number().finite(),
+	/** A number of one's own; by default the next in the project's sequence. */
+	number: weldNumber.optional(),
+	/** Insert between numbers: the new joint takes `5A` after `5`. */
+	insertAfter: weldNumber.optional(),
+	joint: jointFields.partial().default({})
+});
+
+export const movePinSchema = z.object({
+	x: z.number().finite(),
+	y: z.number().finite(),
+	pageIndex: z.number().int().min(0).optional(),
+	/** The joint's version as the client last saw it. */
+	version: z.number().int().min(1)
+});
+
+export const updateJointSchema = jointFields.partial().extend({
+	number: weldNumber.optional(),
+	version: z.number().int().min(1)
+});
+
+export const voidJointSchema = z.object({
+	reason: z
+		.string()
+		.trim()
+		.min(3, { error: 'Say why the joint is voided (at least a few words).' })
+		.max(300),
+	version: z.number().int().min(1)
+});
+
+export const reviewPinSchema = z.object({
+	version: z.number().int().min(1)
+});
+
+export interface LengthColumns {
+	sizeText?: string;
+	diameterMm?: number | null;
+	thicknessText?: string;
+	thicknessMm?: number | null;
+	requiredSizeText?: string;
+	requiredSizeMm?: number | null;
+}
+
+/**
+ * Read the typed sizes into millimetres, keeping the text: a nominal pipe size gives its
+ * outside diameter; anything unreadable is an error naming the field.
+ */
+export function jointLengths(
+	fields: Partial<Pick<JointFields, 'size' | 'thickness' | 'requiredSize'>>,
+	units: UnitSystem
+): { ok: true; values: LengthColumns } | { ok: false; field: string; message: string } {
+	const values: LengthColumns = {};
+	if (fields.size !== undefined) {
+		values.sizeText = fields.size;
+		if (!fields.size) values.diameterMm = null;
+		else {
+			const nominal = outsideDiameterMm(fields.size);
+			if (nominal !== null) values.diameterMm = nominal;
+			else if (/[a-z"]/i.test(fields.size.replace(/^(nps|dn)/i, ''))) {
+				const parsed = parseLength(fields.size, {
+					units,
+					reading: {
+						label: 'Size',
+						kind: 'length',
+						plausible: { min: 0, max: 5000, minExclusive: true }
+					}
+				});
+				if (!parsed.ok) return { ok: false, field: 'joint.size', message: parsed.message };
+				values.diameterMm = parsed.value;
+			} else {
+				return {
+					ok: false,
+					field: 'joint.size',
+					message: `Size "${fields.size}" is not a nominal pipe size (e.g. 6, NPS 6, DN150) nor a diameter with its unit.`
+				};
+			}
+		}
+	}
+	for (const [field, textKey, mmKey] of [
+		['thickness', 'thicknessText', 'thicknessMm'],
+		['requiredSize', 'requiredSizeText', 'requiredSizeMm']
+	] as const) {
+		const typed = fields[field];
+		if (typed === undefined) continue;
+		values[textKey] = typed;
+		if (!typed) {
+			values[mmKey] = null;
+			continue;
+		}
+		const parsed = parseLength(typed, { units, reading: field });
+		if (!parsed.ok) return { ok: false, field: `joint.${field}`, message: parsed.message };
+		values[mmKey] = parsed.value;
+	}
+	return { ok: true, values };
+}

@@ -1,0 +1,123 @@
+/** One dropped file on its way to the register: what it will become, and how its upload goes. */
+import { proposeFromFileName } from '$lib/drawing-names';
+
+export interface ExistingDrawing {
+	id: number;
+	number: string;
+	title: string;
+	kind: string;
+	labels: string[];
+	current: string | null;
+}
+
+export type UploadStatus = 'ready' | 'uploading' | 'processing' | 'done' | 'failed';
+
+/** The label after the current one: 0 → 1, A → B; empty when it cannot be guessed. */
+export function nextLabel(current: string | null): string {
+	if (!current) return '0';
+	if (/^\d+$/.test(current)) return String(Number(current) + 1);
+	if (/^[A-Y]$/.test(current)) return String.fromCharCode(current.charCodeAt(0) + 1);
+	return '';
+}
+
+export class UploadItem {
+	readonly file: File;
+	number = $state('');
+	title = $state('');
+	kind = $state<'isometric' | 'shop' | 'structural'>('isometric');
+	label = $state('0');
+	note = $state('');
+	status = $state<UploadStatus>('ready');
+	progress = $state(0);
+	message = $state('');
+	resultHref = $state('');
+
+	constructor(
+		file: File,
+		private readonly existing: ExistingDrawing[]
+	) {
+		this.file = file;
+		const proposed = proposeFromFileName(file.name);
+		this.number = proposed.number;
+		const match = this.match;
+		this.label = proposed.revision ?? nextLabel(match?.current ?? null);
+		if (match) this.title = match.title;
+	}
+
+	/** The registered drawing this file is a new revision of, if its number is known. */
+	get match(): ExistingDrawing | undefined {
+		const wanted = this.number.trim().toUpperCase();
+		return this.existing.find((d) => d.number.toUpperCase() === wanted);
+	}
+
+	get problem(): string {
+		if (!this.number.trim()) return 'Enter the drawing number.';
+		if (!/^[A-Za-z0-9][A-Za-z0-9.-]{0,7}$/.test(this.label.trim()))
+			return 'Enter a revision label such as 0, 1, A or B.';
+		const match = this.match;
+		if (match?.labels.some((l) => l.toUpperCase() === this.label.trim().toUpperCase())) {
+			return `${match.number} already has revision ${this.label.trim().toUpperCase()}.`;
+		}
+		return '';
+	}
+
+	upload(projectId: number): Promise<void> {
+		const match = this.match;
+		const form = new FormData();
+		if (match) {
+			form.set('label', this.label.trim());
+			form.set('note', this.note);
+		} else {
+			form.set('number', this.number.trim());
+			form.set('title', this.title);
+			form.set('kind', this.kind);
+			form.set('revision', this.label.trim());
+			form.set('note', this.note);
+		}
+		form.set('file', this.file, this.file.name);
+		const url = match
+			? `/api/projects/${projectId}/drawings/${match.id}/revisions`
+			: `/api/projects/${projectId}/drawings`;
+		this.status = 'uploading';
+		this.progress = 0;
+		this.message = '';
+		return new Promise((resolve) => {
+			const xhr = new XMLHttpRequest();
+			xhr.open('POST', url);
+			xhr.responseType = 'json';
+			xhr.upload.onprogress = (e) => {
+				if (e.lengthComputable) this.progress = e.loaded / e.total;
+			};
+			xhr.upload.onload = () => {
+				this.progress = 1;
+				this.status = 'processing';
+			};
+			xhr.onload = () => {
+				const body = xhr.response as {
+					error?: string;
+					drawing?: { id: number };
+					revision?: { id: number; label: string };
+				} | null;
+				if (xhr.status === 201 && body?.revision) {
+					this.status = 'done';
+					const drawingId = body.drawing?.id ?? match!.id;
+					this.resultHref = `/projects/${projectId}/drawings/${drawingId}`;
+					this.message = match
+						? `Revision ${body.revision.label} is now current; the previous one is superseded.`
+						: `Registered with revision ${body.revision.label}.`;
+				} else {
+					this.status = 'failed';
+					this.message = body?.error ?? `The server answered ${xhr.status}. Try again.`;
+				}
+				resolve();
+			};
+			xhr.onerror = () => {
+				this.status = 'failed';
+				this.message =
+					'The connection was lost during the upload. Check the network and try again.';
+				resolve();
+			};
+			xhr.send(form);
+		});
+	}
+}

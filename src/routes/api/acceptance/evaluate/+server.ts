@@ -1,0 +1,48 @@
+import { json } from '@sveltejs/kit';
+import { acceptanceNotice, builtInCriteriaSetIds, evaluate, getCriteriaSet } from '$lib/acceptance';
+import { apiError, invalid } from '$lib/server/api';
+import { evaluateRequestSchema } from '$lib/schemas/acceptance';
+import type { RequestHandler } from './$types';
+
+const EXAMPLE =
+	'{ "criteria": "aws-d1.1-static", "stage": "visual", "joint": { "kind": "butt", "thickness": "3/4 in" }, "readings": { "undercutDepth": "1/32" } }';
+
+/**
+ * The verdict for one set of readings, from the same engine the joint card runs in the browser.
+ * Nothing is stored: recording an inspection belongs to the inspection routes.
+ */
+export const POST: RequestHandler = async ({ request }) => {
+	const body: unknown = await request.json().catch(() => undefined);
+	if (body === undefined) return apiError(400, `The body is not JSON. Send ${EXAMPLE}.`, 'body');
+	if (typeof body !== 'object' || body === null || Array.isArray(body)) {
+		return apiError(400, `The body must be a JSON object, such as ${EXAMPLE}.`, 'body');
+	}
+	const parsed = evaluateRequestSchema.safeParse(body);
+	if (!parsed.success) return invalid(parsed);
+
+	const { criteria, stage, units, joint, readings } = parsed.data;
+	const set = getCriteriaSet(criteria);
+	if (!set) {
+		return apiError(
+			400,
+			`Unknown criteria set "${criteria}"; use one of: ${builtInCriteriaSetIds.join(', ')}.`,
+			'criteria'
+		);
+	}
+	const result = evaluate(set, joint, stage, readings, { units });
+	if (!result.ok) {
+		const [first] = result.errors;
+		return apiError(400, first.message, first.field);
+	}
+	const { verdict, findings, missing, missingJoint, derived } = result;
+	return json({
+		verdict,
+		criteria: result.criteria,
+		units,
+		findings,
+		missing,
+		missingJoint,
+		derived,
+		notice: acceptanceNotice
+	});
+};

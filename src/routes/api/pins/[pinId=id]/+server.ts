@@ -1,0 +1,17 @@
+import { json } from '@sveltejs/kit';
+import * as joints from '$lib/server/joints';
+import { parseBody } from '$lib/server/api-body';
+import { jointErrorResponse } from '$lib/server/joint-errors';
+import { movePinSchema } from '$lib/schemas/joint';
+import type { RequestHandler } from './$types';
+
+/** Move a pin `{ x, y, pageIndex?, version }`; 409 when the joint changed meanwhile. */
+export const PATCH: RequestHandler = async ({ params, request, locals }) => {
+	const body = await parseBody(request, movePinSchema);
+	if ('response' in body) return body.response;
+	try {
+		return json(joints.movePin(Number(params.pinId), body.data, locals.user!.id));
+	} catch (error) {
+		return jointErrorResponse(error);
+	}
+};

@@ -1,0 +1,17 @@
+import { json } from '@sveltejs/kit';
+import * as joints from '$lib/server/joints';
+import { parseBody } from '$lib/server/api-body';
+import { jointErrorResponse } from '$lib/server/joint-errors';
+import { reviewPinSchema } from '$lib/schemas/joint';
+import type { RequestHandler } from './$types';
+
+/** Confirm a pin carried to a new revision: the joint is still where it was. */
+export const POST: RequestHandler = async ({ params, request, locals }) => {
+	const body = await parseBody(request, reviewPinSchema);
+	if ('response' in body) return body.response;
+	try {
+		return json(joints.confirmPin(Number(params.pinId), body.data.version, locals.user!.id));
+	} catch (error) {
+		return jointErrorResponse(error);
+	}
+};

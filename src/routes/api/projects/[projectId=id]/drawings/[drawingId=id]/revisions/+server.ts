@@ -1,0 +1,47 @@
+import { json } from '@sveltejs/kit';
+import * as drawings from '$lib/server/drawings';
+import * as staged from '$lib/server/staged-uploads';
+import { apiError, invalid } from '$lib/server/api';
+import { newRevisionSchema } from '$lib/schemas/drawing';
+import type { RequestHandler } from './$types';
+
+export const GET: RequestHandler = ({ params }) =>
+	json({ items: drawings.history(Number(params.drawingId)) });
+
+/** A new revision (multipart: label, note, file); the previous one is then superseded. */
+export const POST: RequestHandler = async ({ locals, params, request }) => {
+	const body = await request.json().catch(() => null);
+	const file = staged.take(body?.staged);
+	if (!file)
+		return apiError(
+			415,
+			'Send the revision as multipart/form-data, with the PDF in the "file" field.',
+			'file'
+		);
+	const fields = newRevisionSchema.safeParse(body.fields ?? {});
+	if (!fields.success) {
+		staged.discard(file);
+		return invalid(fields);
+	}
+	try {
+		const created = await drawings.addRevision(
+			locals.projectId!,
+			Number(params.drawingId),
+			fields.data,
+			file,
+			locals.user!.id
+		);
+		const revision = drawings.revision(created.revisionId)!;
+		return json(
+			{
+				revision: drawings.revisionJson(revision),
+				superseded: created.superseded,
+				pinsCarried: created.pinsCarried
+			},
+			{ status: 201 }
+		);
+	} catch (error) {
+		if (error instanceof drawings.DrawingError) return apiError(error.status, error.message);
+		throw error;
+	}
+};
