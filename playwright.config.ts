@@ -2,9 +2,12 @@ import { defineConfig, devices } from '@playwright/test';
 
 const port = Number(process.env.E2E_PORT || 4173);
 const baseURL = `http://localhost:${port}`;
+/** Per port, so two runs on one machine (E2E_PORT) keep apart. */
+const dataDir = `test-results/e2e-${port}`;
 
 export default defineConfig({
 	testDir: 'tests/e2e',
+	outputDir: `test-results/output-${port}`,
 	testMatch: '**/*.e2e.ts',
 	// Two cores: one worker, tests in order.
 	workers: 1,
@@ -40,8 +43,8 @@ export default defineConfig({
 		env: {
 			PORT: String(port),
 			ORIGIN: baseURL,
-			DATABASE_URL: 'test-results/e2e-data/tacksheet.db',
-			UPLOADS_DIR: 'test-results/e2e-data/uploads',
+			DATABASE_URL: `${dataDir}/tacksheet.db`,
+			UPLOADS_DIR: `${dataDir}/uploads`,
 			AUTH_SECRET: 'e2e-secret-not-for-production-0123456789abcdef',
 			TACKSHEET_DEMO: '1',
 			// Small enough that the over-limit test stays quick.

@@ -2,6 +2,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
 
-const dataDir = path.dirname(path.resolve(process.env.DATABASE_URL || 'test-results/e2e-data/x'));
+const dataDir = path.dirname(path.resolve(process.env.DATABASE_URL || 'test-results/e2e-4173/x'));
 fs.rmSync(dataDir, { recursive: true, force: true });
 await import('./start.js');

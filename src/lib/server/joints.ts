@@ -540,6 +540,13 @@ export function movePin(
 	return db.transaction((tx) => {
 		const pin = pinWithJoint(tx, pinId);
 		const joint = lockedJoint(tx, pin.jointId, to.version);
+		const revision = tx
+			.select({ status: schema.revisions.status })
+			.from(schema.revisions)
+			.where(eq(schema.revisions.id, pin.revisionId))
+			.get();
+		if (revision?.status !== 'current')
+			throw new JointError('Pins on a superseded revision stay where they were recorded.', 409);
 		if (joint.voidedAt)
 			throw new JointError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
 		const now = Date.now();

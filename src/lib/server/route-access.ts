@@ -96,6 +96,11 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
+	'/api/joints/[jointId=id]/inspections': {
+		GET: project('project.read'),
+		POST: project('inspection.record')
+	},
+	'/api/joints/[jointId=id]/welds': { GET: project('project.read'), POST: project('weld.record') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }

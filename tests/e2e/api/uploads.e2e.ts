@@ -10,7 +10,7 @@ import { expect, test, type APIRequestContext } from '@playwright/test';
 import { BASE_URL, signedInClient } from '../support';
 import { bulkyPdf, damagedPdf, drawingPdf, passwordProtectedPdf } from '../../fixtures/pdfs';
 
-const UPLOADS = path.resolve('test-results/e2e-data/uploads');
+const UPLOADS = path.resolve(`test-results/e2e-${process.env.E2E_PORT || 4173}/uploads`);
 
 function filesOnDisk(): string[] {
 	const list: string[] = [];

@@ -124,6 +124,17 @@ export class SheetViewport {
 		this.#zoomAtCentre(1 / ZOOM_STEP);
 	}
 
+	/** Brings a sheet point to the middle of the frame, zoomed in to at least `scale`. */
+	centerOn(sheetX: number, sheetY: number, scale = 2 * CSS_UNITS): void {
+		const panzoom = this.#panzoom;
+		if (!panzoom) return;
+		const to = Math.min(MAX_SCALE, Math.max(panzoom.getTransform().scale, scale));
+		this.#fit = null;
+		this.#fitted = null;
+		panzoom.zoomAbs(0, 0, to);
+		panzoom.moveTo(this.frameWidth / 2 - sheetX * to, this.frameHeight / 2 - sheetY * to);
+	}
+
 	/** Pans by a share of the frame; positive moves the sheet right or down. */
 	panBy(shareX: number, shareY: number): void {
 		const step = Math.min(this.frameWidth, this.frameHeight);

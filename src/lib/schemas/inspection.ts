@@ -1,0 +1,113 @@
+/**
+ * Recording results on a joint: an inspection (fit-up, visual, NDE) signed by the inspector,
+ * and a weld with its welder stamps. One zod schema each, shared by the API routes, the forms
+ * and the tests. The server judges the readings itself; nothing here carries a verdict.
+ */
+import { z } from 'zod';
+import { NDE_METHODS } from '$lib/joint-state';
+import { readingsSchema } from './acceptance';
+
+export const INSPECTION_STAGES = ['fitup', 'visual', 'nde'] as const;
+export const DECISIONS = ['accept', 'reject'] as const;
+
+const text = (max: number, what: string) =>
+	z
+		.string({ error: `${what} must be text.` })
+		.trim()
+		.max(max, { error: `${what} has at most ${max} characters.` });
+
+/** The joint's version as the client last saw it; optional, and checked when sent. */
+const version = z.number().int().min(1).optional();
+
+export const recordInspectionSchema = z
+	.object({
+		stage: z.enum(INSPECTION_STAGES, { error: 'The stage must be fitup, visual or nde.' }),
+		method: z.enum(NDE_METHODS, { error: 'The NDE method must be RT, UT, MT or PT.' }).optional(),
+		readings: readingsSchema.default({}),
+		decision: z.enum(DECISIONS, { error: 'The decision must be accept or reject.' }),
+		/** Required when the decision goes against the verdict; kept with the record. */
+		reason: text(1000, 'The reason').optional(),
+		reportNo: text(60, 'The report number').optional(),
+		/** The NDE technician and level, as the report names them. */
+		technician: text(120, 'The technician').optional(),
+		/** A correction names the record it replaces; the old one stays in the history. */
+		supersedes: z
+			.number({ error: 'supersedes is the id of the inspection being corrected.' })
+			.int()
+			.min(1)
+			.optional(),
+		version
+	})
+	.superRefine((input, ctx) => {
+		if (input.stage === 'nde' && !input.method) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['method'],
+				message: 'Name the NDE method: RT, UT, MT or PT.'
+			});
+		}
+		if (input.stage !== 'nde' && input.method) {
+			ctx.addIssue({
+				code: 'custom',
+				path: ['method'],
+				message: 'A method belongs to an NDE result only; leave it out for fit-up and visual.'
+			});
+		}
+		if (input.stage === 'nde' && Object.keys(input.readings).length > 0) {
+			// The NDE report carries its own indications; the gauge readings belong to fit-up and visual.
+			ctx.addIssue({
+				code: 'custom',
+				path: ['readings'],
+				message: 'An NDE result carries no gauge readings; give the report number and the decision.'
+			});
+		}
+	});
+
+export type RecordInspection = z.infer<typeof recordInspectionSchema>;
+
+/** A welder stamp as it is marked beside the weld, e.g. `B14`. */
+const stamp = z
+	.string({ error: 'A welder stamp is text, such as "B14".' })
+	.trim()
+	.min(1, { error: 'Enter the welder stamp.' })
+	.max(24, { error: 'A welder stamp has at most 24 characters.' });
+
+function isCalendarDate(value: string): boolean {
+	const date = new Date(`${value}T00:00:00Z`);
+	return !Number.isNaN(date.getTime()) && date.toISOString().slice(0, 10) === value;
+}
+
+export const isoDate = z
+	.string({ error: 'Give the date as YYYY-MM-DD.' })
+	.trim()
+	.regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Give the date as YYYY-MM-DD.' })
+	.refine(isCalendarDate, { error: 'That date is not on the calendar.' });
+
+export const recordWeldSchema = z.object({
+	weldedOn: isoDate,
+	welders: z.object(
+		{
+			root: stamp,
+			fill: stamp.optional(),
+			cap: stamp.optional()
+		},
+		{ error: 'Give the welder stamps by pass: { "root": "B14", "fill": "B22", "cap": "B22" }.' }
+	),
+	/** The WPS used; the joint's WPS when left out. */
+	wps: text(60, 'The WPS').optional(),
+	/** One process for every pass (`GTAW`), or by pass (`GTAW/SMAW`: root, then fill and cap). */
+	process: text(40, 'The process').optional(),
+	/** An administrator letting a lapsed or expired qualification through, with the reason. */
+	override: z
+		.object({
+			reason: z
+				.string()
+				.trim()
+				.min(3, { error: 'Say why the qualification check is overridden.' })
+				.max(500)
+		})
+		.optional(),
+	version
+});
+
+export type RecordWeld = z.infer<typeof recordWeldSchema>;

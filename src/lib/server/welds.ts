@@ -1,0 +1,561 @@
+/**
+ * Welds: the foreman (or the inspector) records that a joint was welded, by whom on each pass,
+ * with which procedure. Every stamp is checked against the project's welder register: active,
+ * qualified for the process of that pass, the qualification not expired and its continuity
+ * not lapsed. A weld on a joint in repair is the next repair cycle (R1, R2 …).
+ *
+ * The process of each pass comes from the request (`GTAW`, or `GTAW/SMAW` for the root, then
+ * fill and cap), else from the WPS text when it names one (`WPS-CS-01 GTAW/SMAW`), else the
+ * weld is refused with 400 asking for it.
+ */
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { db, schema } from './db';
+import * as audit from './audit';
+import * as events from './events';
+import { JointError, refreshState, row, stateInput } from './joints';
+import { jointSummary } from './inspections';
+import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
+import type { RecordWeld } from '$lib/schemas/inspection';
+import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
+
+/** A rule the caller's role does not allow within a route it may use (the override). */
+export class WeldOverrideError extends Error {
+	readonly status = 403;
+	readonly field = 'override';
+}
+
+// Processes -------------------------------------------------------------------------------
+
+/**
+ * ISO 4063 reference numbers, as metric WPSs name processes, to the AWS A3.0 / ASME IX letters
+ * the qualification records use. From memory; 138 (metal-cored wire) counts as GMAW in both
+ * codes' process lists.
+ */
+const ISO_4063: Readonly<Record<string, string>> = {
+	'111': 'SMAW',
+	'114': 'FCAW',
+	'121': 'SAW',
+	'131': 'GMAW',
+	'135': 'GMAW',
+	'136': 'FCAW',
+	'138': 'GMAW',
+	'141': 'GTAW',
+	'15': 'PAW'
+};
+
+/** Arc and gas processes as AWS A3.0 names them; a suffix (`FCAW-G`) is kept as written. */
+const PROCESS_LETTERS = ['SMAW', 'GTAW', 'GMAW', 'FCAW', 'SAW', 'PAW', 'ESW', 'EGW', 'OFW'];
+
+function normalProcess(part: string): string | null {
+	const name = part.trim().toUpperCase();
+	if (ISO_4063[name]) return ISO_4063[name];
+	return /^[A-Z]{2,5}(-[A-Z0-9]{1,3})?$/.test(name) ? name : null;
+}
+
+function isKnownProcess(part: string): boolean {
+	const name = part.trim().toUpperCase();
+	return name in ISO_4063 || PROCESS_LETTERS.includes(name.split('-')[0]);
+}
+
+export type PassProcesses = Record<WeldPass, string>;
+
+/**
+ * `GTAW` → every pass GTAW; `GTAW/SMAW` → root GTAW, fill and cap SMAW (the usual pipe
+ * combination); `GTAW/SMAW/SMAW` → root, fill, cap. Null when the text cannot be read so.
+ */
+export function passProcesses(text: string): PassProcesses | null {
+	const parts = text
+		.split(/[/+]/)
+		.map((part) => part.trim())
+		.filter(Boolean)
+		.map(normalProcess);
+	if (parts.length === 0 || parts.length > 3 || parts.some((part) => part === null)) return null;
+	const [root, fill = root, cap = fill] = parts as string[];
+	return { root, fill, cap };
+}
+
+/** The processes a WPS designation names, such as `WPS-CS-01 GTAW/SMAW` or `WPS-VFT-02 141/111`. */
+export function processFromWps(wps: string): PassProcesses | null {
+	const tokens = wps.split(/[\s,;()]+/).filter(Boolean);
+	for (let k = tokens.length - 1; k >= 0; k--) {
+		const parts = tokens[k].split(/[/+]/).filter(Boolean);
+		if (parts.length > 0 && parts.every(isKnownProcess)) return passProcesses(tokens[k]);
+	}
+	return null;
+}
+
+/** How the weld record writes the processes: `GTAW`, or `GTAW/SMAW` by pass. */
+function processText(processes: PassProcesses, passes: readonly WeldPass[]): string {
+	const used = passes.map((pass) => processes[pass]);
+	const distinct = used.filter((process, k) => used.indexOf(process) === k);
+	return distinct.join('/');
+}
+
+// Continuity --------------------------------------------------------------------------------
+
+/**
+ * Six months without the process and the qualification lapses:
+ * ASME BPVC Section IX QW-322.1(a) ("6 months or more" without welding in that process) and
+ * AWS D1.1:2020 6.2.3.1 ("more than six months"; clause number from memory, 4.1.3.1 in 2006).
+ * Both run per process, from the last day the welder used it (or the test itself).
+ */
+export const CONTINUITY_MONTHS = 6;
+
+function dateParts(date: string): [number, number, number] {
+	const [y, m, d] = date.split('-').map(Number);
+	return [y, m, d];
+}
+
+function isoOf(y: number, monthIndex: number, d: number): string {
+	return new Date(Date.UTC(y, monthIndex, d)).toISOString().slice(0, 10);
+}
+
+/**
+ * The same day of the month, `months` calendar months on; a day the month does not have
+ * falls back to its last day (2026-08-31 + 6 → 2027-02-28).
+ */
+export function addCalendarMonths(date: string, months: number): string {
+	const [y, m, d] = dateParts(date);
+	const monthIndex = m - 1 + months;
+	const lastDay = new Date(Date.UTC(y, monthIndex + 1, 0)).getUTCDate();
+	return isoOf(y, monthIndex, Math.min(d, lastDay));
+}
+
+export function addDays(date: string, days: number): string {
+	const [y, m, d] = dateParts(date);
+	return isoOf(y, m - 1, d + days);
+}
+
+/**
+ * The last day a welder may weld with a process, counted in calendar months from the last use:
+ * last used 2026-03-15 → valid through 2026-09-15, lapsed from 2026-09-16. Exactly six months
+ * on is still in: D1.1 says "more than six months". QW-322.1's "6 months or more" could be
+ * read one day stricter; a contract that wants that reading sets the later use date.
+ */
+export function continuityValidThrough(lastUsedOn: string): string {
+	return addCalendarMonths(lastUsedOn, CONTINUITY_MONTHS);
+}
+
+export interface QualificationRecord {
+	process: string;
+	qualifiedOn: string;
+	expiresOn: string | null;
+	lastUsedOn: string | null;
+}
+
+export type QualificationCheck =
+	| { ok: true }
+	| { ok: false; problem: 'not_qualified'; overridable: false }
+	| { ok: false; problem: 'not_yet'; overridable: false; qualifiedOn: string }
+	| { ok: false; problem: 'expired'; overridable: true; expiresOn: string }
+	| {
+			ok: false;
+			problem: 'lapsed';
+			overridable: true;
+			lastUsedOn: string;
+			validThrough: string;
+			lapsedOn: string;
+	  };
+
+/**
+ * May the welder weld this process on this date? `expiresOn` is the last day of validity
+ * (the date written on the record); continuity runs from the later of the test and the last use.
+ */
+export function checkQualification(
+	qualification: QualificationRecord | undefined,
+	weldedOn: string
+): QualificationCheck {
+	if (!qualification) return { ok: false, problem: 'not_qualified', overridable: false };
+	if (weldedOn < qualification.qualifiedOn) {
+		return {
+			ok: false,
+			problem: 'not_yet',
+			overridable: false,
+			qualifiedOn: qualification.qualifiedOn
+		};
+	}
+	if (qualification.expiresOn && weldedOn > qualification.expiresOn) {
+		return { ok: false, problem: 'expired', overridable: true, expiresOn: qualification.expiresOn };
+	}
+	const lastUsedOn =
+		qualification.lastUsedOn && qualification.lastUsedOn > qualification.qualifiedOn
+			? qualification.lastUsedOn
+			: qualification.qualifiedOn;
+	const validThrough = continuityValidThrough(lastUsedOn);
+	if (weldedOn > validThrough) {
+		return {
+			ok: false,
+			problem: 'lapsed',
+			overridable: true,
+			lastUsedOn,
+			validThrough,
+			lapsedOn: addDays(validThrough, 1)
+		};
+	}
+	return { ok: true };
+}
+
+// Reading -----------------------------------------------------------------------------------
+
+const w = schema.welds;
+const ww = schema.weldWelders;
+
+function stampsOf(weldIds: number[]) {
+	if (weldIds.length === 0) return [];
+	return db
+		.select({
+			weldId: ww.weldId,
+			pass: ww.pass,
+			welderId: schema.welders.id,
+			stamp: schema.welders.stamp,
+			name: schema.welders.name
+		})
+		.from(ww)
+		.innerJoin(schema.welders, eq(schema.welders.id, ww.welderId))
+		.where(inArray(ww.weldId, weldIds))
+		.all()
+		.sort((a, b) => WELD_PASSES.indexOf(a.pass) - WELD_PASSES.indexOf(b.pass));
+}
+
+/** The joint's welds in the order they were made (original, R1, R2 …), with stamps by pass. */
+export function list(jointId: number) {
+	const joint = db
+		.select({ number: schema.joints.number })
+		.from(schema.joints)
+		.where(eq(schema.joints.id, jointId))
+		.get();
+	const welds = db
+		.select({ weld: w, recordedByName: schema.users.name })
+		.from(w)
+		.leftJoin(schema.users, eq(schema.users.id, w.recordedBy))
+		.where(eq(w.jointId, jointId))
+		.orderBy(asc(w.repairCycle))
+		.all();
+	const stamps = stampsOf(welds.map(({ weld }) => weld.id));
+	return welds.map(({ weld, recordedByName }) => ({
+		...weld,
+		label: displayWeldNumber(joint?.number ?? '', weld.repairCycle),
+		recordedByName,
+		welders: stamps
+			.filter((s) => s.weldId === weld.id)
+			.map(({ pass, welderId, stamp, name }) => ({ pass, welderId, stamp, name }))
+	}));
+}
+
+// Writing -----------------------------------------------------------------------------------
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+/** Why a joint in this state takes no weld, and what comes first. */
+const NOT_READY: Record<Exclude<JointState, 'ready_to_weld' | 'repair'>, string> = {
+	awaiting_fitup: 'has no accepted fit-up yet: the inspector checks the fit-up before welding.',
+	fitup_rejected:
+		'had its fit-up rejected: correct the fit-up and have it inspected again before welding.',
+	awaiting_visual:
+		'is already welded and waits for its visual inspection; a repair weld follows a reject only.',
+	awaiting_nde:
+		'is already welded and waits for NDE; a repair weld follows a rejected result only.',
+	accepted: 'is accepted: nothing more is welded on it. A cut-out becomes a new joint.',
+	void: 'is void: nothing more is recorded on it.'
+};
+
+/** The repair cycle this weld makes: 0 once the fit-up is accepted, the next one in repair. */
+function cycleOf(tx: Tx, joint: Joint): { cycle: number; previousOn: string | null } {
+	const derived = deriveJointState(stateInput(joint.id, tx)!);
+	if (derived.state === 'ready_to_weld') return { cycle: 0, previousOn: null };
+	if (derived.state === 'repair') {
+		const previous = tx
+			.select({ weldedOn: w.weldedOn })
+			.from(w)
+			.where(eq(w.jointId, joint.id))
+			.orderBy(desc(w.repairCycle))
+			.get();
+		return { cycle: derived.repairCycle + 1, previousOn: previous?.weldedOn ?? null };
+	}
+	throw new JointError(
+		`Joint ${displayWeldNumber(joint.number, derived.repairCycle)} ${NOT_READY[derived.state]}`,
+		409
+	);
+}
+
+function todayUtc(): string {
+	return new Date().toISOString().slice(0, 10);
+}
+
+interface StampedWelder {
+	id: number;
+	stamp: string;
+	name: string;
+	status: 'active' | 'inactive';
+}
+
+interface Problem {
+	pass: WeldPass;
+	welder: StampedWelder;
+	process: string;
+	check: QualificationCheck;
+}
+
+/** Clause references written beside the continuity message, as the inspector will quote them. */
+const CONTINUITY_SOURCE = 'ASME IX QW-322.1; AWS D1.1:2020 6.2.3.1';
+
+function problemText({ welder, process, check }: Problem): string {
+	const who = `Welder ${welder.stamp} (${welder.name})`;
+	if (check.ok) return `${who} is qualified for ${process}.`;
+	switch (check.problem) {
+		case 'not_qualified':
+			return `${who} has no ${process} qualification on record; add the welder's ${process} qualification first.`;
+		case 'not_yet':
+			return `${who} is qualified for ${process} from ${check.qualifiedOn} only, after this weld's date.`;
+		case 'expired':
+			return `${who}: the ${process} qualification expired after ${check.expiresOn}.`;
+		case 'lapsed':
+			return `${who}: the ${process} qualification lapsed on ${check.lapsedOn}, six months after its last use on ${check.lastUsedOn} (${CONTINUITY_SOURCE}).`;
+	}
+}
+
+function findWelders(tx: Tx, projectId: number, stamps: string[]): Map<string, StampedWelder> {
+	const rows = tx
+		.select({
+			id: schema.welders.id,
+			stamp: schema.welders.stamp,
+			name: schema.welders.name,
+			status: schema.welders.status
+		})
+		.from(schema.welders)
+		.where(
+			and(
+				eq(schema.welders.projectId, projectId),
+				inArray(
+					sql`upper(${schema.welders.stamp})`,
+					stamps.map((s) => s.toUpperCase())
+				)
+			)
+		)
+		.all();
+	return new Map(rows.map((r) => [r.stamp.toUpperCase(), r]));
+}
+
+function qualificationsOf(tx: Tx, welderIds: number[]) {
+	return tx
+		.select()
+		.from(schema.welderQualifications)
+		.where(inArray(schema.welderQualifications.welderId, welderIds))
+		.all();
+}
+
+/**
+ * Record a weld on a joint, with the welder of each pass, in one transaction with the
+ * welders' continuity, the joint's state and its version. Expected failures are JointErrors
+ * (400 bad input, 404, 409 out of order or a welder refused) or a WeldOverrideError (403).
+ */
+export function record(
+	jointId: number,
+	input: RecordWeld,
+	user: { id: string; isAdmin: boolean },
+	options: { today?: string } = {}
+) {
+	return db.transaction((tx) => {
+		const joint = row(jointId, tx);
+		if (!joint) throw new JointError('There is no such joint.', 404);
+		if (input.version !== undefined && input.version !== joint.version) {
+			throw new JointError(
+				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
+				409,
+				'version'
+			);
+		}
+		if (joint.voidedAt) {
+			throw new JointError(
+				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
+				409
+			);
+		}
+		const { cycle, previousOn } = cycleOf(tx, joint);
+		const label = displayWeldNumber(joint.number, cycle);
+
+		// A day's grace: a site ahead of UTC records today's date before UTC reaches it.
+		const latest = addDays(options.today ?? todayUtc(), 1);
+		if (input.weldedOn > latest) {
+			throw new JointError(
+				`The weld date ${input.weldedOn} is in the future; give the day it was welded.`,
+				400,
+				'weldedOn'
+			);
+		}
+		if (previousOn && input.weldedOn < previousOn) {
+			throw new JointError(
+				`Repair ${label} cannot be welded before the weld it repairs (${previousOn}).`,
+				400,
+				'weldedOn'
+			);
+		}
+
+		const wps = input.wps || joint.wps;
+		const processes = input.process ? passProcesses(input.process) : processFromWps(wps);
+		if (!processes) {
+			throw new JointError(
+				input.process
+					? `Cannot read the process "${input.process}": give its letters (GTAW, SMAW, FCAW …) or ISO 4063 number, one for all passes or by pass such as GTAW/SMAW (root, then fill and cap).`
+					: `The WPS ${wps ? `"${wps}" names` : 'is blank and names'} no welding process: give the process, such as "GTAW" or "GTAW/SMAW" (root, then fill and cap).`,
+				400,
+				'process'
+			);
+		}
+
+		const passes = WELD_PASSES.filter((pass) => input.welders[pass]);
+		const stamps = passes.map((pass) => input.welders[pass]!);
+		const found = findWelders(tx, joint.projectId, stamps);
+		const assigned = passes.map((pass) => {
+			const welder = found.get(input.welders[pass]!.toUpperCase());
+			if (!welder) {
+				throw new JointError(
+					`No welder with stamp ${input.welders[pass]} is registered on this project; check the stamp, or have the welder added to the register first.`,
+					400,
+					`welders.${pass}`
+				);
+			}
+			if (welder.status !== 'active') {
+				throw new JointError(
+					`Welder ${welder.stamp} (${welder.name}) is inactive on this project and cannot be stamped on a weld.`,
+					409,
+					`welders.${pass}`
+				);
+			}
+			return { pass, welder, process: processes[pass] };
+		});
+
+		// One check per welder and process: a welder on fill and cap with SMAW is checked once.
+		const qualifications = qualificationsOf(
+			tx,
+			assigned.map((a) => a.welder.id)
+		);
+		const uses: (Problem & { qualification?: (typeof qualifications)[number] })[] = [];
+		for (const { pass, welder, process } of assigned) {
+			if (uses.some((u) => u.welder.id === welder.id && u.process === process)) continue;
+			const qualification = qualifications.find(
+				(q) => q.welderId === welder.id && q.process.toUpperCase() === process
+			);
+			uses.push({
+				pass,
+				welder,
+				process,
+				qualification,
+				check: checkQualification(qualification, input.weldedOn)
+			});
+		}
+		const problems = uses.filter((u) => !u.check.ok);
+		const hard = problems.find((p) => !p.check.ok && !p.check.overridable);
+		if (hard) throw new JointError(problemText(hard), 409, `welders.${hard.pass}`);
+		if (problems.length > 0) {
+			const told = problems.map(problemText).join(' ');
+			if (!input.override) {
+				throw new JointError(
+					`${told} Renew the qualification, or ${user.isAdmin ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
+					409,
+					`welders.${problems[0].pass}`
+				);
+			}
+			if (!user.isAdmin) {
+				throw new WeldOverrideError(
+					`Only an administrator may override a welder qualification check. ${told}`
+				);
+			}
+		}
+		const overrideReason = problems.length > 0 ? input.override!.reason : null;
+
+		const now = Date.now();
+		const weld = tx
+			.insert(w)
+			.values({
+				jointId,
+				repairCycle: cycle,
+				weldedOn: input.weldedOn,
+				wps,
+				process: processText(processes, passes),
+				overrideReason,
+				recordedBy: user.id,
+				recordedAt: now
+			})
+			.returning()
+			.get();
+		for (const { pass, welder } of assigned) {
+			tx.insert(ww).values({ weldId: weld.id, welderId: welder.id, pass }).run();
+		}
+
+		// A weld made on an overridden qualification does not renew it (QW-322.2 asks for a
+		// test), so only qualifications that passed the check move their last use forward.
+		for (const { welder, qualification, check } of uses) {
+			if (!check.ok || !qualification) continue;
+			if (qualification.lastUsedOn && qualification.lastUsedOn >= input.weldedOn) continue;
+			tx.update(schema.welderQualifications)
+				.set({ lastUsedOn: input.weldedOn })
+				.where(eq(schema.welderQualifications.id, qualification.id))
+				.run();
+			audit.record(
+				{
+					action: 'continuity',
+					entity: 'welder',
+					entityId: welder.id,
+					projectId: joint.projectId,
+					userId: user.id,
+					at: now,
+					before: { process: qualification.process, lastUsedOn: qualification.lastUsedOn },
+					after: { process: qualification.process, lastUsedOn: input.weldedOn, weldId: weld.id }
+				},
+				tx
+			);
+		}
+
+		tx.update(schema.joints)
+			.set({ version: joint.version + 1, updatedAt: now })
+			.where(eq(schema.joints.id, jointId))
+			.run();
+		const after = refreshState(jointId, tx, now)!;
+		audit.record(
+			{
+				action: 'weld',
+				entity: 'joint',
+				entityId: jointId,
+				projectId: joint.projectId,
+				userId: user.id,
+				at: now,
+				before: { state: joint.state, repairCycle: joint.repairCycle },
+				after: {
+					weldId: weld.id,
+					repairCycle: cycle,
+					weldedOn: weld.weldedOn,
+					wps,
+					process: weld.process,
+					welders: Object.fromEntries(assigned.map((a) => [a.pass, a.welder.stamp])),
+					...(overrideReason
+						? { override: { reason: overrideReason, refused: problems.map(problemText) } }
+						: {}),
+					state: after.state
+				}
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'joint',
+			action: 'recorded',
+			jointId,
+			drawingId: joint.drawingId,
+			by: user.id
+		});
+		return {
+			weld: {
+				...weld,
+				label,
+				welders: assigned.map(({ pass, welder, process }) => ({
+					pass,
+					welderId: welder.id,
+					stamp: welder.stamp,
+					name: welder.name,
+					process
+				}))
+			},
+			joint: jointSummary(row(jointId, tx)!)
+		};
+	});
+}
