@@ -96,6 +96,7 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/welders': { GET: project('project.read') },
 	'/api/joints/[jointId=id]/inspections': {
 		GET: project('project.read'),
 		POST: project('inspection.record')
