@@ -101,6 +101,7 @@ for (const drawingNumber of ['LBM-20-ISO-1105', 'LBM-20-ISO-1103']) {
 		await card.getByLabel('Required fillet size').fill('1/4');
 		await card.getByLabel('Material').fill('ASTM A105');
 		await card.getByRole('button', { name: 'Save joint' }).click();
+		await expect(card.getByText('Saved.')).toBeVisible();
 		await expect(card.getByText('Joint details changed')).toBeVisible();
 		// 1/4 in = 6.35 mm, shown in the other unit beside what was typed.
 		await expect(card.getByText(/= 6\.[34] mm/)).toBeVisible();
@@ -164,4 +165,29 @@ test('a pin moved in one session moves in the other without a reload', async ({ 
 	expect(stale.status()).toBe(409);
 	await inspector.dispose();
 	await watcher.close();
+});
+
+test('the document controller reviews pins carried to a new revision', async ({ page }) => {
+	await signInInBrowser(page, 'doccon@tacksheet.test');
+	await expect(page).toHaveURL(/\/projects$/);
+	const { revision } = await openDrawing(page, 'LBM-20-ISO-1101');
+	const flagged = async () =>
+		(await (await page.request.get(`/api/revisions/${revision.id}/pins`)).json()).items.filter(
+			(p: { needsReview: boolean; state: string }) => p.needsReview && p.state !== 'void'
+		).length;
+	const before = await flagged();
+	expect(before).toBeGreaterThan(0);
+	const review = page.getByTestId('review-list');
+	await expect(review).toContainText(`${before} pin${before === 1 ? '' : 's'} to review`);
+	await review.getByRole('button').first().click();
+	await page
+		.getByTestId('pin-review')
+		.getByRole('button', { name: 'Confirm the position' })
+		.click();
+	await expect(page.getByTestId('joint-card').getByText('Position confirmed')).toBeVisible();
+	await expect.poll(flagged).toBe(before - 1);
+	const history = page.getByTestId('joint-card').getByText('Pin confirmed on the new revision');
+	await page.getByRole('button', { name: 'Close the joint card' }).click();
+	await review.getByRole('button').first().click();
+	await expect(history).toHaveCount(0);
 });
