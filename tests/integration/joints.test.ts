@@ -167,3 +167,56 @@ describe('pins of a revision', () => {
 			);
 	});
 });
+
+describe('numbering by line', () => {
+	it('runs the sequence on along the line across its drawings when the project says so', async () => {
+		const projects = await import('$lib/server/projects');
+		const project = projects.get(projectId)!;
+		projects.updateSettings(
+			projectId,
+			{
+				name: project.name,
+				client: project.client,
+				contractor: project.contractor,
+				site: project.site,
+				defaultCriteriaSet: project.defaultCriteriaSet,
+				shopPrefix: '',
+				fieldPrefix: 'FW-',
+				sequence: 'line',
+				lotGroupBy: 'line',
+				rtPercent: 5,
+				utPercent: 0,
+				everyWelder: true
+			},
+			userId
+		);
+		const line = 'TEST-LINE-77';
+		const first = joints.place(
+			{ revisionId, pageIndex: 0, x: 50, y: 50, joint: { line } },
+			userId
+		).joint;
+		expect(Number(first.number)).toBeGreaterThan(1);
+		const other = db
+			.select()
+			.from(schema.drawings)
+			.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
+			.get()!;
+		const otherRevision = db
+			.select()
+			.from(schema.revisions)
+			.where(and(eq(schema.revisions.drawingId, other.id), eq(schema.revisions.status, 'current')))
+			.get()!;
+		const second = joints.place(
+			{ revisionId: otherRevision.id, pageIndex: 0, x: 60, y: 60, joint: { line } },
+			userId
+		).joint;
+		expect(Number(second.number)).toBe(Number(first.number) + 1);
+		const audit = db
+			.select()
+			.from(schema.auditEvents)
+			.where(eq(schema.auditEvents.action, 'settings_change'))
+			.all()
+			.at(-1);
+		expect(audit?.after).toMatchObject({ weldNumberRule: { sequence: 'line' } });
+	});
+});

@@ -322,6 +322,19 @@ export function place(input: PlacePin, userId: string) {
 	const lengths = lengthsOrThrow(input.joint, revision.units);
 	return db.transaction((tx) => {
 		const used = numbersOf(revision.drawingId, tx);
+		const line = input.joint.line ?? revision.line;
+		// Numbers run per drawing, or on along the whole line across its drawings.
+		const sequence =
+			revision.rule.sequence === 'line' && line
+				? tx
+						.select({ number: j.number })
+						.from(j)
+						.where(and(eq(j.projectId, revision.projectId), eq(j.line, line)))
+						.all()
+						.map((r) => r.number)
+						// Still unique on the drawing, whatever other lines already use there.
+						.concat(used)
+				: used;
 		let number = input.number;
 		if (!number && input.insertAfter) {
 			number = insertedWeldNumber(input.insertAfter, used) ?? undefined;
@@ -333,7 +346,7 @@ export function place(input: PlacePin, userId: string) {
 				);
 		}
 		number ??= nextWeldNumber(
-			used,
+			sequence,
 			location === 'field' ? revision.rule.fieldPrefix : revision.rule.shopPrefix
 		);
 		if (used.some((n) => n.toUpperCase() === number!.toUpperCase())) {
@@ -353,7 +366,7 @@ export function place(input: PlacePin, userId: string) {
 				sortKey: weldNumberSortKey(number),
 				kind: input.joint.kind ?? 'butt',
 				location,
-				line: input.joint.line ?? revision.line,
+				line,
 				spool: input.joint.spool ?? '',
 				material: input.joint.material ?? '',
 				wps: input.joint.wps ?? '',

@@ -2,6 +2,9 @@
 import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
 import { db, schema } from './db';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
+import * as audit from './audit';
+import type { z } from 'zod';
+import type { projectSettingsSchema } from '$lib/schemas/project';
 
 export function list(projectIds?: readonly number[]) {
 	const query = db.select().from(schema.projects);
@@ -69,4 +72,60 @@ export function pinsToReview(projectId: number): number {
 			)
 			.get()?.n ?? 0
 	);
+}
+
+/** Change a project's settings; the values before and after go to the audit trail. */
+export function updateSettings(
+	projectId: number,
+	input: z.infer<typeof projectSettingsSchema>,
+	userId: string
+) {
+	const before = get(projectId);
+	if (!before) return undefined;
+	const values = {
+		name: input.name,
+		client: input.client,
+		contractor: input.contractor,
+		site: input.site,
+		defaultCriteriaSet: input.defaultCriteriaSet,
+		weldNumberRule: {
+			shopPrefix: input.shopPrefix,
+			fieldPrefix: input.fieldPrefix,
+			sequence: input.sequence
+		},
+		ndeLotRule: {
+			groupBy: input.lotGroupBy,
+			percent: {
+				...(input.rtPercent ? { RT: input.rtPercent } : {}),
+				...(input.utPercent ? { UT: input.utPercent } : {})
+			},
+			everyWelder: input.everyWelder
+		}
+	};
+	return db.transaction((tx) => {
+		const updated = tx
+			.update(schema.projects)
+			.set(values)
+			.where(eq(schema.projects.id, projectId))
+			.returning()
+			.get();
+		const changed = Object.keys(values).filter(
+			(k) =>
+				JSON.stringify(before[k as keyof typeof before]) !==
+				JSON.stringify(values[k as keyof typeof values])
+		);
+		audit.record(
+			{
+				action: 'settings_change',
+				entity: 'project',
+				entityId: projectId,
+				projectId,
+				userId,
+				before: Object.fromEntries(changed.map((k) => [k, before[k as keyof typeof before]])),
+				after: Object.fromEntries(changed.map((k) => [k, values[k as keyof typeof values]]))
+			},
+			tx
+		);
+		return updated;
+	});
 }

@@ -26,7 +26,10 @@ export interface RouteRules {
 
 const PUBLIC: Rule = { access: 'public' };
 const SIGNED_IN: Rule = { access: 'signed-in' };
-const project = (action: ProjectAction): Rule => ({ access: 'project', action });
+const project = (action: ProjectAction): Rule => ({
+	access: 'project',
+	action
+});
 const global = (action: GlobalAction): Rule => ({ access: 'global', action });
 
 export const ROUTES: Record<string, RouteRules> = {
@@ -40,8 +43,16 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/(app)/projects': { GET: SIGNED_IN },
 	'/(app)/projects/[projectId=id]': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/drawings': { GET: project('project.read') },
-	'/(app)/projects/[projectId=id]/drawings/upload': { GET: project('drawing.upload') },
-	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/drawings/upload': {
+		GET: project('drawing.upload')
+	},
+	'/(app)/projects/[projectId=id]/settings': {
+		GET: project('project.settings'),
+		actions: { default: project('project.settings') }
+	},
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': {
+		GET: project('project.read')
+	},
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
 		GET: project('project.read')
 	},
@@ -50,7 +61,10 @@ export const ROUTES: Record<string, RouteRules> = {
 	},
 
 	'/(app)/account': { GET: SIGNED_IN, actions: { password: SIGNED_IN } },
-	'/(app)/account/tokens': { GET: SIGNED_IN, actions: { create: SIGNED_IN, revoke: SIGNED_IN } },
+	'/(app)/account/tokens': {
+		GET: SIGNED_IN,
+		actions: { create: SIGNED_IN, revoke: SIGNED_IN }
+	},
 
 	'/(app)/admin/users': {
 		GET: global('users.manage'),
@@ -84,7 +98,9 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.read'),
 		POST: project('drawing.upload')
 	},
-	'/api/projects/[projectId=id]/uploads/permit': { GET: project('drawing.upload') },
+	'/api/projects/[projectId=id]/uploads/permit': {
+		GET: project('drawing.upload')
+	},
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/pins': {
@@ -93,7 +109,10 @@ export const ROUTES: Record<string, RouteRules> = {
 	},
 	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
-	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
+	'/api/joints/[jointId=id]': {
+		GET: project('project.read'),
+		PATCH: project('joint.edit')
+	},
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
 	'/api/projects/[projectId=id]/welders': { GET: project('project.read') },
@@ -101,7 +120,13 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.read'),
 		POST: project('inspection.record')
 	},
-	'/api/joints/[jointId=id]/welds': { GET: project('project.read'), POST: project('weld.record') },
+	'/api/joints/[jointId=id]/welds': {
+		GET: project('project.read'),
+		POST: project('weld.record')
+	},
+	// -- weld log, summary and progress: entries below --
+	// -- outstanding board, welders and inspection requests: entries below --
+	// -- turnover exports: entries below --
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }

@@ -39,6 +39,14 @@ function projectOfPin(pinId: number): number | undefined {
 		.get()?.projectId;
 }
 
+function projectOfExport(exportId: number): number | undefined {
+	return db
+		.select({ projectId: schema.exports.projectId })
+		.from(schema.exports)
+		.where(eq(schema.exports.id, exportId))
+		.get()?.projectId;
+}
+
 /** The project's id, or null when the route has no project or an id in it does not exist. */
 export function projectOf(params: Partial<Record<string, string>>): number | null {
 	const found = new Set<number | undefined>();
@@ -72,6 +80,7 @@ export function projectOf(params: Partial<Record<string, string>>): number | nul
 	}
 	if (params.jointId) found.add(projectOfJoint(Number(params.jointId)));
 	if (params.pinId) found.add(projectOfPin(Number(params.pinId)));
+	if (params.exportId) found.add(projectOfExport(Number(params.exportId)));
 	if (found.size !== 1) return null;
 	const [projectId] = found;
 	return projectId ?? null;

@@ -1,0 +1,35 @@
+/** A project's settings, as the administrator edits them. */
+import { z } from 'zod';
+import { builtInCriteriaSetIds } from '$lib/acceptance';
+
+const percent = z.coerce
+	.number()
+	.min(0, { error: 'At least 0 %.' })
+	.max(100, { error: 'At most 100 %.' });
+
+export const projectSettingsSchema = z.object({
+	name: z.string().trim().min(1, { error: 'Name the project.' }).max(160),
+	client: z.string().trim().max(160).default(''),
+	contractor: z.string().trim().max(160).default(''),
+	site: z.string().trim().max(160).default(''),
+	defaultCriteriaSet: z.enum(builtInCriteriaSetIds as [string, ...string[]], {
+		error: 'Choose a criteria set.'
+	}),
+	shopPrefix: z
+		.string()
+		.trim()
+		.max(8)
+		.regex(/^[A-Za-z0-9-]*$/, { error: 'Letters, digits and "-" only.' })
+		.default(''),
+	fieldPrefix: z
+		.string()
+		.trim()
+		.max(8)
+		.regex(/^[A-Za-z0-9-]*$/, { error: 'Letters, digits and "-" only.' })
+		.default('FW-'),
+	sequence: z.enum(['drawing', 'line']).default('drawing'),
+	lotGroupBy: z.enum(['line', 'system', 'drawing', 'week']).default('line'),
+	rtPercent: percent.default(5),
+	utPercent: percent.default(0),
+	everyWelder: z.boolean().default(true)
+});
