@@ -6,6 +6,7 @@ import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as mail from '$lib/server/mail';
 import * as users from '$lib/server/users';
 import * as guard from '$lib/server/sign-in-guard';
+import * as exportJobs from '$lib/server/exports';
 import { ruleFor } from '$lib/server/route-access';
 import { projectOf } from '$lib/server/route-project';
 import { can, canGlobal, isMember } from '$lib/permissions';
@@ -14,6 +15,8 @@ import { can, canGlobal, isMember } from '$lib/permissions';
 export const init: ServerInit = async () => {
 	const db = getDb();
 	if (mail.usingStandIn()) await mail.startStandIn();
+	// Exports a crash left running can never finish: say so before anyone waits on them.
+	exportJobs.recoverInterrupted();
 	const result = await seedIfEmpty(db);
 	if (result.seeded) {
 		console.log(

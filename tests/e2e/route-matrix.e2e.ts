@@ -172,12 +172,19 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			.items[0];
 		const pin = (await (await admin.get(`/api/revisions/${first.currentRevision.id}/pins`)).json())
 			.items[0];
+		// A turnover export of the project; 409 names the one already running.
+		const started = await admin.post(`/api/projects/${projectId}/exports`, {
+			headers: { origin: BASE_URL },
+			data: { scope: { all: true } }
+		});
+		const exportId = ((await started.json()) as { id: number }).id;
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
 			revisionId: String(first.currentRevision.id),
 			jointId: String(pin.jointId),
-			pinId: String(pin.pinId)
+			pinId: String(pin.pinId),
+			exportId: String(exportId)
 		};
 	}
 	await admin.dispose();

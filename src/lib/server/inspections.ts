@@ -8,6 +8,7 @@ import { and, desc, eq } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import * as events from './events';
+import * as inspectionRequests from './inspection-requests';
 import { JointError, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
@@ -424,6 +425,9 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			.where(eq(schema.joints.id, jointId))
 			.run();
 		const after = refreshState(jointId, tx, now)!;
+		// The hold point the foreman called for this stage is released by this very record,
+		// in the same transaction, so the board never shows one without the other.
+		inspectionRequests.closeByInspection(tx, jointId, input.stage, inspection.id, now);
 		audit.record(
 			{
 				action: correcting ? 'inspection_correct' : 'inspection',

@@ -83,3 +83,61 @@ export function signInLink(
 		{ label: 'Sign in to Tacksheet', url }
 	);
 }
+
+/** The hold point called by the foreman: one message per batch to each project inspector. */
+export function inspectionRequest(
+	to: string,
+	request: {
+		project: string;
+		stage: string;
+		requestedBy: string;
+		note: string;
+		welds: { label: string; drawingNumber: string; url: string }[];
+		boardUrl: string;
+	}
+): Message {
+	const count = request.welds.length;
+	const subject = `${request.stage[0].toUpperCase()}${request.stage.slice(1)} inspection requested: ${count} weld${count === 1 ? '' : 's'}`;
+	return layout(
+		to,
+		subject,
+		[
+			`${request.requestedBy} asks for a ${request.stage} inspection on ${request.project}. The work waits at this hold point until the result is recorded.`,
+			...(request.note ? [`Note: ${request.note}`] : []),
+			...request.welds.map((w) => `Weld ${w.label}, drawing ${w.drawingNumber}: ${w.url}`),
+			'Each request closes itself when the inspection is recorded on the joint card.'
+		],
+		{ label: 'Open the outstanding board', url: request.boardUrl }
+	);
+}
+
+/** The turnover set someone started is ready to download. */
+export function turnoverReady(
+	to: string,
+	set: {
+		projectCode: string;
+		scope: string;
+		pageUrl: string;
+		fileUrl: string;
+		bytes: number;
+		/** Report lines of revisions that could not be included. */
+		leftOut: string[];
+	}
+): Message {
+	const megabytes = (set.bytes / 1024 / 1024).toFixed(1);
+	return layout(
+		to,
+		`Turnover set ready: ${set.projectCode}`,
+		[
+			`The turnover set you started for ${set.projectCode} (${set.scope}) is complete: ${megabytes} MB, with the marked-up set, the weld log, the inspection records and a manifest.`,
+			...(set.leftOut.length > 0
+				? [
+						`${set.leftOut.length} revision${set.leftOut.length === 1 ? ' was' : 's were'} left out:`,
+						...set.leftOut
+					]
+				: []),
+			`The download asks you to sign in. Past exports are listed at ${set.pageUrl}.`
+		],
+		{ label: 'Download the turnover set', url: set.fileUrl }
+	);
+}

@@ -26,10 +26,7 @@ export interface RouteRules {
 
 const PUBLIC: Rule = { access: 'public' };
 const SIGNED_IN: Rule = { access: 'signed-in' };
-const project = (action: ProjectAction): Rule => ({
-	access: 'project',
-	action
-});
+const project = (action: ProjectAction): Rule => ({ access: 'project', action });
 const global = (action: GlobalAction): Rule => ({ access: 'global', action });
 
 export const ROUTES: Record<string, RouteRules> = {
@@ -43,16 +40,12 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/(app)/projects': { GET: SIGNED_IN },
 	'/(app)/projects/[projectId=id]': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/drawings': { GET: project('project.read') },
-	'/(app)/projects/[projectId=id]/drawings/upload': {
-		GET: project('drawing.upload')
-	},
+	'/(app)/projects/[projectId=id]/drawings/upload': { GET: project('drawing.upload') },
 	'/(app)/projects/[projectId=id]/settings': {
 		GET: project('project.settings'),
 		actions: { default: project('project.settings') }
 	},
-	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': {
-		GET: project('project.read')
-	},
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
 		GET: project('project.read')
 	},
@@ -61,10 +54,7 @@ export const ROUTES: Record<string, RouteRules> = {
 	},
 
 	'/(app)/account': { GET: SIGNED_IN, actions: { password: SIGNED_IN } },
-	'/(app)/account/tokens': {
-		GET: SIGNED_IN,
-		actions: { create: SIGNED_IN, revoke: SIGNED_IN }
-	},
+	'/(app)/account/tokens': { GET: SIGNED_IN, actions: { create: SIGNED_IN, revoke: SIGNED_IN } },
 
 	'/(app)/admin/users': {
 		GET: global('users.manage'),
@@ -98,9 +88,7 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.read'),
 		POST: project('drawing.upload')
 	},
-	'/api/projects/[projectId=id]/uploads/permit': {
-		GET: project('drawing.upload')
-	},
+	'/api/projects/[projectId=id]/uploads/permit': { GET: project('drawing.upload') },
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/pins': {
@@ -109,24 +97,53 @@ export const ROUTES: Record<string, RouteRules> = {
 	},
 	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
-	'/api/joints/[jointId=id]': {
-		GET: project('project.read'),
-		PATCH: project('joint.edit')
-	},
+	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
-	'/api/projects/[projectId=id]/welders': { GET: project('project.read') },
 	'/api/joints/[jointId=id]/inspections': {
 		GET: project('project.read'),
 		POST: project('inspection.record')
 	},
-	'/api/joints/[jointId=id]/welds': {
-		GET: project('project.read'),
-		POST: project('weld.record')
-	},
+	'/api/joints/[jointId=id]/welds': { GET: project('project.read'), POST: project('weld.record') },
 	// -- weld log, summary and progress: entries below --
+	'/(app)/projects/[projectId=id]/log': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/progress': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/joints': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/joints.csv': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/joints.xlsx': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/summary': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/progress': { GET: project('project.read') },
 	// -- outstanding board, welders and inspection requests: entries below --
+	'/(app)/projects/[projectId=id]/outstanding': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/welders': {
+		GET: project('project.read'),
+		actions: {
+			create: project('welder.manage'),
+			qualify: project('welder.manage'),
+			status: project('welder.manage')
+		}
+	},
+	'/api/projects/[projectId=id]/outstanding': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/welders': {
+		GET: project('project.read'),
+		POST: project('welder.manage')
+	},
+	'/api/projects/[projectId=id]/inspection-requests': {
+		GET: project('project.read'),
+		POST: project('inspection.request')
+	},
 	// -- turnover exports: entries below --
+	'/(app)/projects/[projectId=id]/turnover': { GET: project('project.export') },
+	'/api/projects/[projectId=id]/exports': {
+		GET: project('project.export'),
+		POST: project('project.export')
+	},
+	'/api/projects/[projectId=id]/exports/preview': { GET: project('project.export') },
+	'/api/exports/[exportId=id]': {
+		GET: project('project.export'),
+		DELETE: project('project.export')
+	},
+	'/api/exports/[exportId=id]/file': { GET: project('project.export') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }

@@ -316,7 +316,13 @@ export const joints = sqliteTable(
 		uniqueIndex('joints_drawing_number').on(t.drawingId, t.number),
 		index('joints_project_state').on(t.projectId, t.state, t.stateSince),
 		index('joints_project_sort').on(t.projectId, t.sortKey),
-		index('joints_project_line').on(t.projectId, t.line)
+		index('joints_project_line').on(t.projectId, t.line),
+		// The weld log's default order (drawing, then weld number) and its age sort, read
+		// straight off an index so a page of 100,000 joints needs no sort.
+		index('joints_drawing_sort').on(t.drawingId, t.sortKey),
+		index('joints_project_since').on(t.projectId, t.stateSince),
+		// Covers the summary's count per drawing and state without touching the rows.
+		index('joints_project_drawing_state').on(t.projectId, t.drawingId, t.state)
 	]
 );
 
@@ -447,7 +453,9 @@ export const inspections = sqliteTable(
 	(t) => [
 		index('inspections_joint').on(t.jointId, t.stage, t.inspectedAt),
 		index('inspections_inspector').on(t.inspectorId, t.inspectedAt),
-		index('inspections_time').on(t.inspectedAt)
+		index('inspections_time').on(t.inspectedAt),
+		// "Is this row corrected by a later one?" is asked for every row the weld log shows.
+		index('inspections_supersedes').on(t.supersedesId)
 	]
 );
 

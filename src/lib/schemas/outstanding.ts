@@ -1,0 +1,61 @@
+/**
+ * Inputs of the outstanding board, the welder register and inspection requests: one zod
+ * schema each, shared by the API routes, the page actions and the tests.
+ */
+import { z } from 'zod';
+import type { RequestStage } from '$lib/outstanding';
+
+const id = z.coerce.number().int().min(1);
+const isoDate = (what: string) =>
+	z
+		.string({ error: `${what} must be a date.` })
+		.regex(/^\d{4}-\d{2}-\d{2}$/, { error: `${what} is a date written YYYY-MM-DD.` });
+const text = (max: number, what: string) =>
+	z
+		.string({ error: `${what} must be text.` })
+		.trim()
+		.max(max, { error: `${what} has at most ${max} characters.` });
+
+export const outstandingQuerySchema = z.object({
+	area: text(80, 'The area').optional(),
+	drawing: id.optional(),
+	welder: id.optional(),
+	/** Rows per owed list; a big job has thousands outstanding. */
+	limit: z.coerce.number().int().min(1).max(200).default(50)
+});
+export type OutstandingQuery = z.infer<typeof outstandingQuerySchema>;
+
+export const REQUEST_STAGES = ['fitup', 'visual'] as const satisfies readonly RequestStage[];
+
+export const inspectionRequestSchema = z.object({
+	stage: z.enum(REQUEST_STAGES, { error: 'The stage must be fitup or visual.' }),
+	jointIds: z
+		.array(z.number().int().min(1), { error: 'jointIds is a list of joint ids.' })
+		.min(1, { error: 'Choose at least one joint.' })
+		.max(200, { error: 'Request at most 200 joints at once.' }),
+	note: text(500, 'The note').optional()
+});
+export type InspectionRequestInput = z.infer<typeof inspectionRequestSchema>;
+
+export const qualificationSchema = z.object({
+	process: text(20, 'The process')
+		.min(2, { error: 'Give the process, such as GTAW or SMAW.' })
+		.transform((p) => p.toUpperCase()),
+	qualifiedOn: isoDate('The qualification date'),
+	reference: text(60, 'The qualification record').optional().default(''),
+	expiresOn: isoDate('The expiry date').optional()
+});
+export type QualificationInput = z.infer<typeof qualificationSchema>;
+
+export const welderSchema = z.object({
+	stamp: text(20, 'The stamp').min(1, { error: 'Give the welder stamp.' }),
+	name: text(120, 'The name').min(1, { error: 'Give the welder name.' }),
+	employer: text(120, 'The employer').optional().default(''),
+	processes: z.array(qualificationSchema).max(12).optional().default([])
+});
+export type WelderInput = z.infer<typeof welderSchema>;
+
+export const welderStatusSchema = z.object({
+	welderId: id,
+	status: z.enum(['active', 'inactive'], { error: 'The status is active or inactive.' })
+});

@@ -1,0 +1,340 @@
+/**
+ * `marked-up-set.pdf`: a cover sheet, then every sheet in scope copied from its stored
+ * revision (vector content kept, never rasterised) with each pin stamped in vector graphics
+ * at its stored PDF point, and a footer on every page. One damaged or locked source fails its
+ * drawing only: the reason goes into the job's report and into the cover's index.
+ */
+import {
+	PDFDocument,
+	EncryptedPDFError,
+	ParseSpeeds,
+	degrees,
+	type Color,
+	type PDFFont,
+	type PDFPage
+} from 'pdf-lib';
+import fontkit from '@pdf-lib/fontkit';
+import { STATE_LOOKS, type JointState } from '$lib/joint-state';
+import {
+	STAMP,
+	normaliseRotation,
+	shownSize,
+	shownToUser,
+	turn,
+	type SheetBox
+} from './sheet-frame';
+import {
+	COVER,
+	coverBox,
+	coverPageCount,
+	drawCover,
+	type CoverFacts,
+	type IndexEntry
+} from './cover';
+import {
+	INK,
+	MUTED,
+	REVIEW_RING,
+	RULE,
+	SUPERSEDED,
+	WHITE,
+	drawGlyph,
+	embedFonts,
+	hex,
+	type Fonts
+} from './pdf-marks';
+import type { ScopeDrawing, ScopeRevision } from './scope';
+
+export { coverPageCount, type CoverFacts, type IndexEntry };
+
+export interface StampPin {
+	pageIndex: number;
+	x: number;
+	y: number;
+	state: JointState;
+	/** The weld number as written on the map, repair suffix included. */
+	label: string;
+	needsReview: boolean;
+}
+
+export interface SetInput {
+	cover: CoverFacts;
+	drawings: ScopeDrawing[];
+	pinsOf: (revisionId: number) => StampPin[];
+	readFile: (fileKey: string) => Promise<Uint8Array>;
+	/** Fixed dates inside the PDF, so unchanged data gives the same bytes. */
+	fixedDate: Date;
+	onProgress: (done: number, total: number, current: string) => void;
+	/** Throws to stop the job between drawings (a cancelled export). */
+	checkpoint: () => void;
+}
+
+export interface SetResult {
+	bytes: Uint8Array;
+	pageCount: number;
+	entries: IndexEntry[];
+}
+
+function shownText(
+	page: PDFPage,
+	box: SheetBox,
+	text: string,
+	u: number,
+	v: number,
+	options: { font: PDFFont; size: number; color: Color }
+) {
+	const at = shownToUser(box, u, v);
+	page.drawText(text, { ...options, x: at.x, y: at.y, rotate: degrees(box.rotation) });
+}
+
+function shownRect(
+	page: PDFPage,
+	box: SheetBox,
+	u: number,
+	v: number,
+	width: number,
+	height: number,
+	options: { color?: Color; opacity?: number; borderColor?: Color; borderWidth?: number }
+) {
+	const at = shownToUser(box, u, v);
+	page.drawRectangle({
+		...options,
+		x: at.x,
+		y: at.y,
+		width,
+		height,
+		rotate: degrees(box.rotation)
+	});
+}
+
+function stampPin(page: PDFPage, box: SheetBox, pin: StampPin, fonts: Fonts) {
+	const look = STATE_LOOKS[pin.state];
+	if (pin.needsReview) {
+		page.drawSvgPath(REVIEW_RING, {
+			x: pin.x,
+			y: pin.y,
+			scale: STAMP.glyphScale,
+			rotate: degrees(box.rotation),
+			borderColor: hex(look.color),
+			borderWidth: 1.6,
+			borderDashArray: [3, 2]
+		});
+	}
+	drawGlyph(page, pin.state, pin.x, pin.y, STAMP.glyphScale, box.rotation);
+
+	// The number sits above the glyph, centred on the pin's x in the shown frame.
+	const size = STAMP.labelSize;
+	const width = fonts.semibold.widthOfTextAtSize(pin.label, size);
+	const halo = turn(box.rotation, -width / 2 - 1.4, STAMP.labelBaseline - 1.6);
+	page.drawRectangle({
+		x: pin.x + halo.x,
+		y: pin.y + halo.y,
+		width: width + 2.8,
+		height: size * 0.72 + 3.2,
+		rotate: degrees(box.rotation),
+		color: WHITE,
+		opacity: 0.88
+	});
+	const start = turn(box.rotation, -width / 2, STAMP.labelBaseline);
+	page.drawText(pin.label, {
+		x: pin.x + start.x,
+		y: pin.y + start.y,
+		size,
+		font: fonts.semibold,
+		color: INK,
+		rotate: degrees(box.rotation)
+	});
+}
+
+function supersededMark(page: PDFPage, box: SheetBox, note: string, fonts: Fonts) {
+	const { width, height } = shownSize(box);
+	const text = `SUPERSEDED  ${note}`;
+	const size = 14;
+	const textWidth = fonts.semibold.widthOfTextAtSize(text, size);
+	const u = (width - textWidth) / 2;
+	const v = height - 34;
+	shownRect(page, box, u - 10, v - 8, textWidth + 20, size + 12, {
+		color: WHITE,
+		opacity: 0.9,
+		borderColor: SUPERSEDED,
+		borderWidth: 2
+	});
+	shownText(page, box, text, u, v, { font: fonts.semibold, size, color: SUPERSEDED });
+}
+
+interface FooterFacts {
+	left: string;
+	centre: string;
+	superseded: boolean;
+}
+
+function footer(
+	page: PDFPage,
+	box: SheetBox,
+	facts: FooterFacts,
+	pageNo: number,
+	total: number,
+	fonts: Fonts
+) {
+	const { width } = shownSize(box);
+	const h = STAMP.footerHeight;
+	shownRect(page, box, 0, 0, width, h, { color: WHITE, opacity: 0.92 });
+	shownRect(page, box, 0, h, width, 0.6, { color: RULE });
+	const size = 7.5;
+	const base = 5.2;
+	const left = facts.superseded ? `${facts.left} (SUPERSEDED)` : facts.left;
+	shownText(page, box, left, 10, base, {
+		font: fonts.semibold,
+		size,
+		color: facts.superseded ? SUPERSEDED : INK
+	});
+	const centreWidth = fonts.regular.widthOfTextAtSize(facts.centre, size);
+	shownText(page, box, facts.centre, (width - centreWidth) / 2, base, {
+		font: fonts.regular,
+		size,
+		color: MUTED
+	});
+	const right = `Page ${pageNo} of ${total}`;
+	const rightWidth = fonts.semibold.widthOfTextAtSize(right, size);
+	shownText(page, box, right, width - 10 - rightWidth, base, {
+		font: fonts.semibold,
+		size,
+		color: INK
+	});
+}
+
+function problemOf(error: unknown): string {
+	// Matched by message too: pdf-lib's errors extend Error in ES5 style, so instanceof can miss.
+	if (
+		error instanceof EncryptedPDFError ||
+		(error instanceof Error && /\bis encrypted\b/.test(error.message))
+	)
+		return 'the stored PDF is password-protected; upload an unprotected copy as a new revision';
+	if (error instanceof Error && 'code' in error && error.code === 'ENOENT')
+		return 'the stored file is missing from the file store';
+	const detail = error instanceof Error ? error.message.split('\n')[0].slice(0, 160) : '';
+	return `the stored PDF is damaged and cannot be read${detail ? ` (${detail})` : ''}`;
+}
+
+const yieldToServer = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+// The set -----------------------------------------------------------------------------------
+
+interface SheetMeta {
+	box: SheetBox;
+	footer: FooterFacts;
+}
+
+export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
+	const out = await PDFDocument.create({ updateMetadata: false });
+	out.registerFontkit(fontkit);
+	const fonts = await embedFonts(out);
+	out.setTitle(`Turnover set ${input.cover.projectCode} ${input.cover.exportDay}`);
+	out.setCreator('Tacksheet');
+	out.setProducer('Tacksheet');
+	out.setCreationDate(input.fixedDate);
+	out.setModificationDate(input.fixedDate);
+
+	const revisions: { drawing: ScopeDrawing; revision: ScopeRevision }[] = input.drawings.flatMap(
+		(drawing) => drawing.revisions.map((revision) => ({ drawing, revision }))
+	);
+	const entries: IndexEntry[] = [];
+	const metas: SheetMeta[] = [];
+	const centre = `Turnover set · ${input.cover.projectCode} · exported ${input.cover.exportDay}`;
+
+	for (const [i, { drawing, revision }] of revisions.entries()) {
+		input.checkpoint();
+		input.onProgress(i, revisions.length, `${drawing.number} rev ${revision.label}`);
+		const entry: IndexEntry = {
+			drawing: drawing.number,
+			revision: revision.label,
+			status: revision.status,
+			sheets: revision.sheets.length,
+			pins: 0
+		};
+		entries.push(entry);
+		let copied: PDFPage[];
+		try {
+			const source = await PDFDocument.load(await input.readFile(revision.fileKey), {
+				updateMetadata: false,
+				parseSpeed: ParseSpeeds.Fast
+			});
+			const available = source.getPageCount();
+			const wanted = revision.sheets.map((s) => s.pageIndex);
+			if (wanted.length === 0 || wanted.some((index) => index >= available))
+				throw new Error(`it has ${available} pages where ${wanted.length} were registered`);
+			copied = await out.copyPages(source, wanted);
+		} catch (error) {
+			entry.problem = problemOf(error);
+			continue;
+		}
+		const pins = input.pinsOf(revision.id);
+		entry.firstPage = metas.length + 1;
+		for (const [k, page] of copied.entries()) {
+			out.addPage(page);
+			const sheet = revision.sheets[k];
+			const box: SheetBox = {
+				x0: sheet.x0,
+				y0: sheet.y0,
+				x1: sheet.x1,
+				y1: sheet.y1,
+				rotation: normaliseRotation(page.getRotation().angle)
+			};
+			for (const pin of pins) {
+				if (pin.pageIndex !== sheet.pageIndex) continue;
+				stampPin(page, box, pin, fonts);
+				entry.pins++;
+			}
+			if (revision.status === 'superseded') {
+				supersededMark(
+					page,
+					box,
+					revision.supersededBy ? `by revision ${revision.supersededBy}` : '',
+					fonts
+				);
+			}
+			metas.push({
+				box,
+				footer: {
+					left: `${drawing.number} · Rev ${revision.label} · sheet ${sheet.pageIndex + 1} of ${revision.sheets.length}`,
+					centre,
+					superseded: revision.status === 'superseded'
+				}
+			});
+			// A sheet at a time, so a drawing of many busy sheets never holds the event loop.
+			await yieldToServer();
+		}
+	}
+	input.checkpoint();
+
+	const coverCount = coverPageCount(entries.length);
+	for (const entry of entries) if (entry.firstPage) entry.firstPage += coverCount;
+	const coverPages = Array.from({ length: coverCount }, (_, i) =>
+		out.insertPage(i, [COVER.width, COVER.height])
+	);
+	drawCover(coverPages, input.cover, entries, fonts);
+	await yieldToServer();
+
+	const total = out.getPageCount();
+	coverPages.forEach((page, i) =>
+		footer(
+			page,
+			coverBox,
+			{ left: 'Cover and index', centre, superseded: false },
+			i + 1,
+			total,
+			fonts
+		)
+	);
+	const pages = out.getPages();
+	// Footers cost a few milliseconds a page: hand the event loop back every few pages.
+	for (const [i, meta] of metas.entries()) {
+		footer(pages[coverCount + i], meta.box, meta.footer, coverCount + i + 1, total, fonts);
+		if (i % 10 === 9) await yieldToServer();
+	}
+
+	// Without object streams the writer has no large block to deflate in one go, so its
+	// yields every `objectsPerTick` objects keep the server answering.
+	const saved = await out.save({ objectsPerTick: 200, useObjectStreams: false });
+	return { bytes: saved, pageCount: total, entries };
+}

@@ -1,0 +1,181 @@
+/**
+ * The record files of a turnover set: the weld log (through the weld-log module, so the set
+ * carries exactly the log the app shows) and every inspection record in scope.
+ */
+import { PassThrough, type Writable } from 'node:stream';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { db, schema } from '../db';
+import * as weldLog from '../weld-log';
+import { weldLogFilter } from '$lib/schemas/weld-log';
+import { displayWeldNumber } from '$lib/joint-state';
+import type { ExportRequest } from '$lib/schemas/export';
+import type { ScopeDrawing } from './scope';
+
+/** Collects what a writer streams, for a zip entry whose hash goes into the manifest. */
+export async function collect(write: (writable: Writable) => Promise<void>): Promise<Buffer> {
+	const sink = new PassThrough();
+	const chunks: Buffer[] = [];
+	sink.on('data', (chunk: Buffer) => chunks.push(chunk));
+	const done = new Promise<void>((resolve, reject) => {
+		sink.on('end', resolve);
+		sink.on('error', reject);
+	});
+	await write(sink);
+	await done;
+	return Buffer.concat(chunks);
+}
+
+/** The weld log's rows for the scope, in the log's own order (drawing, then weld number). */
+export function* weldLogRows(
+	projectId: number,
+	request: ExportRequest,
+	drawings: readonly ScopeDrawing[]
+) {
+	const state = request.acceptedOnly ? ('accepted' as const) : undefined;
+	if (request.scope.all) {
+		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state }));
+		return;
+	}
+	if (request.scope.area) {
+		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state, area: request.scope.area }));
+		return;
+	}
+	for (const drawing of drawings)
+		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state, drawing: drawing.id }));
+}
+
+export async function weldLogCsv(rows: Iterable<weldLog.WeldLogRow>): Promise<Buffer> {
+	return collect((w) => weldLog.writeCsv(rows, w));
+}
+
+export async function weldLogXlsx(rows: Iterable<weldLog.WeldLogRow>): Promise<Buffer> {
+	return collect((w) => weldLog.writeXlsx(rows, w));
+}
+
+// inspections.csv ---------------------------------------------------------------------------
+
+const HEADERS = [
+	'Drawing',
+	'Weld no.',
+	'Stage',
+	'NDE method',
+	'Repair cycle',
+	'Inspector',
+	'Inspected at (UTC)',
+	'Readings as typed',
+	'Readings (mm, degrees)',
+	'Verdict',
+	'Decision',
+	'Against verdict',
+	'Reason',
+	'Report no.',
+	'Technician',
+	'Criteria set',
+	'Record id',
+	'Corrects record'
+];
+
+/** RFC 4180 quoting, and a leading quote on text a spreadsheet would run as a formula. */
+function field(value: string | number | null | undefined): string {
+	let text = value == null ? '' : String(value);
+	if (/^[=+@\t\r]/.test(text)) text = `'${text}`;
+	return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
+}
+
+function shownValue(value: number | boolean | null, unit: string | null): string {
+	if (value === null) return '';
+	if (typeof value === 'boolean') return value ? 'yes' : 'no';
+	const rounded = Math.round(value * 1000) / 1000;
+	return unit === 'deg' ? `${rounded}°` : unit === 'mm' ? `${rounded} mm` : String(rounded);
+}
+
+const CHUNK = 2000;
+
+/**
+ * Every inspection record of the joints in scope, corrections included (each names the row
+ * it corrects), ordered by drawing, weld number and time so the file reads as a history.
+ */
+export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
+	const i = schema.inspections;
+	const j = schema.joints;
+	const lines: string[] = [HEADERS.map(field).join(',')];
+	const ids = drawings.map((d) => d.id);
+	const numberOf = new Map(drawings.map((d) => [d.id, d.number]));
+	for (let start = 0; start < ids.length; start += CHUNK) {
+		const rows = db
+			.select({
+				id: i.id,
+				drawingId: j.drawingId,
+				number: j.number,
+				sortKey: j.sortKey,
+				stage: i.stage,
+				method: i.method,
+				repairCycle: i.repairCycle,
+				readings: i.readings,
+				verdict: i.verdict,
+				decision: i.decision,
+				againstVerdict: i.againstVerdict,
+				reason: i.reason,
+				reportNo: i.reportNo,
+				technician: i.technician,
+				criteriaSetId: i.criteriaSetId,
+				criteriaSetVersion: i.criteriaSetVersion,
+				inspectedAt: i.inspectedAt,
+				supersedesId: i.supersedesId,
+				inspector: schema.users.name,
+				inspectorEmail: schema.users.email
+			})
+			.from(i)
+			.innerJoin(j, eq(j.id, i.jointId))
+			.innerJoin(schema.users, eq(schema.users.id, i.inspectorId))
+			.where(
+				and(
+					inArray(j.drawingId, ids.slice(start, start + CHUNK)),
+					request.acceptedOnly ? eq(j.state, 'accepted') : undefined
+				)
+			)
+			.orderBy(asc(j.drawingId), asc(j.sortKey), asc(i.inspectedAt), asc(i.id))
+			.all();
+		// Drawing ids follow upload order; the file follows the drawing numbers.
+		const order = new Map(ids.map((id, n) => [id, n]));
+		rows.sort(
+			(a, b) =>
+				order.get(a.drawingId)! - order.get(b.drawingId)! ||
+				(a.sortKey < b.sortKey ? -1 : a.sortKey > b.sortKey ? 1 : 0) ||
+				a.inspectedAt - b.inspectedAt ||
+				a.id - b.id
+		);
+		for (const row of rows) {
+			lines.push(
+				[
+					numberOf.get(row.drawingId) ?? '',
+					displayWeldNumber(row.number, row.repairCycle),
+					row.stage,
+					row.method ?? '',
+					row.repairCycle,
+					row.inspector ? `${row.inspector} <${row.inspectorEmail}>` : row.inspectorEmail,
+					new Date(row.inspectedAt).toISOString(),
+					row.readings.map((r) => `${r.id}: ${r.text}`).join('; '),
+					row.readings
+						.filter((r) => r.value !== null)
+						.map((r) => `${r.id}: ${shownValue(r.value, r.unit)}`)
+						.join('; '),
+					row.verdict ?? '',
+					row.decision,
+					row.againstVerdict ? 'yes' : '',
+					row.reason ?? '',
+					row.reportNo ?? '',
+					row.technician ?? '',
+					row.criteriaSetId
+						? `${row.criteriaSetId}${row.criteriaSetVersion != null ? ` v${row.criteriaSetVersion}` : ''}`
+						: '',
+					row.id,
+					row.supersedesId ?? ''
+				]
+					.map(field)
+					.join(',')
+			);
+		}
+	}
+	return Buffer.from('\uFEFF' + lines.join('\r\n') + '\r\n', 'utf8');
+}

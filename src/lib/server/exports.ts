@@ -1,0 +1,380 @@
+/**
+ * Turnover exports: a job per request, run off the request in an in-process queue, one at a
+ * time. The `exports` row is the job's whole state (status, progress, the drawing it is on,
+ * its report), so a page reload or a second tab reads the same picture. The heavy PDF work
+ * yields to the event loop between drawings and while saving, so the server keeps answering.
+ */
+import { and, desc, eq, inArray } from 'drizzle-orm';
+import { db, schema } from './db';
+import * as audit from './audit';
+import * as mail from './mail';
+import * as templates from './mail-templates';
+import * as storage from './storage';
+import { buildPackage } from './export/package';
+import { preview, resolve, scopeKey } from './export/scope';
+import { describeScope, type ExportRequest } from '$lib/schemas/export';
+
+export { preview };
+
+export class ExportError extends Error {
+	constructor(
+		message: string,
+		readonly status: 400 | 404 | 409,
+		readonly exportId?: number
+	) {
+		super(message);
+	}
+}
+
+const e = schema.exports;
+const ACTIVE = ['queued', 'running'] as const;
+
+/** Thrown between steps of a job that was cancelled meanwhile. */
+class Cancelled extends Error {}
+
+interface Runner {
+	queue: number[];
+	running: number | null;
+	/** Where the notice links to, per job: the origin the request came in on. */
+	origins: Map<number, string>;
+	settled: Map<number, { promise: Promise<void>; resolve: () => void }>;
+	recovered: boolean;
+}
+
+const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetExports ??= {
+	queue: [] as number[],
+	running: null,
+	origins: new Map(),
+	settled: new Map(),
+	recovered: false
+});
+
+/**
+ * A job left queued or running by a stopped server can never finish: mark it failed, once
+ * per process, before this module runs any job of its own.
+ */
+export function recoverInterrupted(): number {
+	const stale = db
+		.select({ id: e.id, report: e.report })
+		.from(e)
+		.where(inArray(e.status, [...ACTIVE]))
+		.all()
+		.filter((row) => row.id !== runner.running && !runner.queue.includes(row.id));
+	for (const row of stale) {
+		db.update(e)
+			.set({
+				status: 'failed',
+				finishedAt: Date.now(),
+				report: [...row.report, 'The server stopped while this export was running; start it again.']
+			})
+			.where(eq(e.id, row.id))
+			.run();
+	}
+	return stale.length;
+}
+
+if (!runner.recovered) {
+	runner.recovered = true;
+	recoverInterrupted();
+}
+
+function settledEntry(id: number) {
+	let entry = runner.settled.get(id);
+	if (!entry) {
+		let resolveFn = () => {};
+		const promise = new Promise<void>((r) => (resolveFn = r));
+		entry = { promise, resolve: resolveFn };
+		runner.settled.set(id, entry);
+	}
+	return entry;
+}
+
+/** Resolves when the job has finished one way or another (tests, the bench). */
+export function whenSettled(exportId: number): Promise<void> {
+	const row = db.select({ status: e.status }).from(e).where(eq(e.id, exportId)).get();
+	if (!row || !(ACTIVE as readonly string[]).includes(row.status)) return Promise.resolve();
+	return settledEntry(exportId).promise;
+}
+
+/** Queue a turnover set; an identical one still queued or running is refused with 409. */
+export function start(
+	projectId: number,
+	request: ExportRequest,
+	userId: string,
+	origin: string
+): { id: number } {
+	if (resolve(projectId, request).length === 0)
+		throw new ExportError(
+			'Nothing in this project matches the scope: choose other drawings, an area or a system.',
+			400
+		);
+	const key = scopeKey(projectId, request);
+	const created = db.transaction((tx) => {
+		const running = tx
+			.select({ id: e.id })
+			.from(e)
+			.where(and(eq(e.scopeKey, key), inArray(e.status, [...ACTIVE])))
+			.get();
+		if (running)
+			throw new ExportError(
+				'The same turnover set is already being exported. Wait for it or cancel it first.',
+				409,
+				running.id
+			);
+		const row = tx
+			.insert(e)
+			.values({
+				projectId,
+				scope: {
+					...request.scope,
+					includeSuperseded: request.includeSuperseded,
+					acceptedOnly: request.acceptedOnly
+				},
+				scopeKey: key,
+				requestedBy: userId
+			})
+			.returning({ id: e.id })
+			.get();
+		audit.record(
+			{
+				action: 'export.start',
+				entity: 'export',
+				entityId: row.id,
+				userId,
+				projectId,
+				after: request
+			},
+			tx
+		);
+		return row;
+	});
+	runner.origins.set(created.id, origin);
+	settledEntry(created.id);
+	runner.queue.push(created.id);
+	queueMicrotask(pump);
+	return created;
+}
+
+function pump() {
+	if (runner.running !== null) return;
+	const next = runner.queue.shift();
+	if (next === undefined) return;
+	runner.running = next;
+	run(next)
+		.catch((error) => console.error(`Export ${next}:`, error))
+		.finally(() => {
+			runner.running = null;
+			runner.origins.delete(next);
+			runner.settled.get(next)?.resolve();
+			runner.settled.delete(next);
+			pump();
+		});
+}
+
+function requestOf(scope: Record<string, unknown>): ExportRequest {
+	const { includeSuperseded, acceptedOnly, ...rest } = scope as ExportRequest['scope'] & {
+		includeSuperseded?: boolean;
+		acceptedOnly?: boolean;
+	};
+	return { scope: rest, includeSuperseded: !!includeSuperseded, acceptedOnly: !!acceptedOnly };
+}
+
+async function run(id: number) {
+	const row = db.select().from(e).where(eq(e.id, id)).get();
+	if (!row || row.status !== 'queued') return;
+	const startedAt = Date.now();
+	db.update(e).set({ status: 'running', startedAt, progress: 0 }).where(eq(e.id, id)).run();
+	const user = row.requestedBy
+		? db.select().from(schema.users).where(eq(schema.users.id, row.requestedBy)).get()
+		: undefined;
+	const request = requestOf(row.scope);
+	const checkpoint = () => {
+		const now = db.select({ status: e.status }).from(e).where(eq(e.id, id)).get();
+		if (now?.status !== 'running') throw new Cancelled();
+	};
+	try {
+		const result = await buildPackage({
+			exportId: id,
+			projectId: row.projectId,
+			request,
+			requestedBy: { name: user?.name ?? null, email: user?.email ?? 'unknown' },
+			startedAt,
+			checkpoint,
+			onProgress: (progress, current) =>
+				db
+					.update(e)
+					.set({ progress, current })
+					.where(and(eq(e.id, id), eq(e.status, 'running')))
+					.run()
+		});
+		const finished = db
+			.update(e)
+			.set({
+				status: 'done',
+				progress: 1,
+				current: null,
+				report: result.report,
+				fileKey: result.fileKey,
+				bytes: result.bytes,
+				sha256: result.sha256,
+				finishedAt: Date.now()
+			})
+			.where(and(eq(e.id, id), eq(e.status, 'running')))
+			.run();
+		if (finished.changes === 0) {
+			// Cancelled while the zip was being moved into place.
+			await storage.remove(result.fileKey);
+			return;
+		}
+		if (user) await notify(id, row.projectId, user.email, request, result.report);
+	} catch (error) {
+		if (error instanceof Cancelled) return;
+		db.update(e)
+			.set({
+				status: 'failed',
+				current: null,
+				finishedAt: Date.now(),
+				report: [`The export failed: ${error instanceof Error ? error.message : String(error)}`]
+			})
+			.where(and(eq(e.id, id), eq(e.status, 'running')))
+			.run();
+		throw error;
+	}
+}
+
+async function notify(
+	id: number,
+	projectId: number,
+	to: string,
+	request: ExportRequest,
+	report: string[]
+) {
+	const project = db.select().from(schema.projects).where(eq(schema.projects.id, projectId)).get();
+	const origin = runner.origins.get(id) ?? process.env.ORIGIN ?? 'http://localhost:3000';
+	const row = status(id);
+	try {
+		await mail.send(
+			templates.turnoverReady(to, {
+				projectCode: project?.code ?? '',
+				scope: describeScope(request.scope, request.scope.drawings?.length ?? 0),
+				pageUrl: `${origin}/projects/${projectId}/turnover`,
+				fileUrl: `${origin}/api/exports/${id}/file`,
+				bytes: row?.bytes ?? 0,
+				leftOut: report.filter((line) => line.includes(': not included,'))
+			})
+		);
+	} catch (error) {
+		// The set is complete either way; the page shows it and its download link.
+		console.error(`Export ${id}: the notice could not be sent:`, error);
+	}
+}
+
+/** Cancel a queued or running job; its partial file is never kept. */
+export function cancel(exportId: number, userId: string) {
+	const row = db.select().from(e).where(eq(e.id, exportId)).get();
+	if (!row) throw new ExportError('There is no such export.', 404);
+	if (!(ACTIVE as readonly string[]).includes(row.status))
+		throw new ExportError(
+			`This export has already ${row.status === 'done' ? 'finished' : row.status}.`,
+			409
+		);
+	db.update(e)
+		.set({ status: 'cancelled', current: null, finishedAt: Date.now() })
+		.where(eq(e.id, exportId))
+		.run();
+	runner.queue = runner.queue.filter((id) => id !== exportId);
+	if (runner.running !== exportId) {
+		runner.settled.get(exportId)?.resolve();
+		runner.settled.delete(exportId);
+	}
+	audit.record({
+		action: 'export.cancel',
+		entity: 'export',
+		entityId: exportId,
+		userId,
+		projectId: row.projectId
+	});
+	return status(exportId)!;
+}
+
+/** The public shape of a job. */
+export function status(exportId: number) {
+	const row = db
+		.select({
+			id: e.id,
+			projectId: e.projectId,
+			status: e.status,
+			progress: e.progress,
+			current: e.current,
+			report: e.report,
+			scope: e.scope,
+			bytes: e.bytes,
+			sha256: e.sha256,
+			createdAt: e.createdAt,
+			startedAt: e.startedAt,
+			finishedAt: e.finishedAt,
+			requestedBy: schema.users.name,
+			requestedByEmail: schema.users.email
+		})
+		.from(e)
+		.leftJoin(schema.users, eq(schema.users.id, e.requestedBy))
+		.where(eq(e.id, exportId))
+		.get();
+	if (!row) return undefined;
+	const request = requestOf(row.scope);
+	const options = [
+		request.includeSuperseded ? 'with superseded revisions' : '',
+		request.acceptedOnly ? 'accepted joints only' : ''
+	].filter(Boolean);
+	return {
+		...row,
+		scopeText: [describeScope(request.scope, request.scope.drawings?.length ?? 0), ...options].join(
+			', '
+		),
+		current: row.current ?? undefined,
+		fileUrl: row.status === 'done' ? `/api/exports/${row.id}/file` : undefined
+	};
+}
+
+export type ExportStatus = NonNullable<ReturnType<typeof status>>;
+
+/** Past and present exports of a project, newest first. */
+export function history(projectId: number, limit = 20) {
+	const ids = db
+		.select({ id: e.id })
+		.from(e)
+		.where(eq(e.projectId, projectId))
+		.orderBy(desc(e.createdAt), desc(e.id))
+		.limit(limit)
+		.all();
+	return ids.map((row) => status(row.id)!);
+}
+
+/** The stored zip of a finished export, and a file name safe on every system. */
+export function fileOf(exportId: number) {
+	const row = db
+		.select({
+			status: e.status,
+			fileKey: e.fileKey,
+			bytes: e.bytes,
+			sha256: e.sha256,
+			createdAt: e.createdAt,
+			code: schema.projects.code
+		})
+		.from(e)
+		.innerJoin(schema.projects, eq(schema.projects.id, e.projectId))
+		.where(eq(e.id, exportId))
+		.get();
+	if (!row) throw new ExportError('There is no such export.', 404);
+	if (row.status !== 'done' || !row.fileKey)
+		throw new ExportError('This export has no file: it is not finished, or it failed.', 409);
+	const code =
+		row.code.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^[-.]+|[-.]+$/g, '') || 'project';
+	const day = new Date(row.createdAt).toISOString().slice(0, 10);
+	return {
+		fileKey: row.fileKey,
+		bytes: row.bytes ?? 0,
+		sha256: row.sha256 ?? '',
+		fileName: `${code}-turnover-set-${exportId}-${day}.zip`
+	};
+}

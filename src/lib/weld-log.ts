@@ -1,0 +1,134 @@
+/**
+ * The weld log's row and its columns, pure so the grid in the browser, the CSV and Excel
+ * writers and the turnover export all name and read the columns the same way.
+ */
+import { STATE_LOOKS, type JointState, type Decision } from './joint-state';
+
+export interface WeldLogRow {
+	id: number;
+	drawingId: number;
+	drawing: string;
+	/** Label of the drawing's current revision; null while none is uploaded. */
+	revision: string | null;
+	/** 1-based sheet of the current revision the joint's pin is on, if it has one. */
+	sheet: number | null;
+	number: string;
+	/** As written on the map, with the repair suffix: `12-R1`. */
+	weldNumber: string;
+	kind: string;
+	location: string;
+	size: string;
+	thickness: string;
+	material: string;
+	wps: string;
+	line: string;
+	area: string;
+	system: string;
+	state: JointState;
+	stateSince: number;
+	rootWelders: string[];
+	fillCapWelders: string[];
+	/** `YYYY-MM-DD` of the latest weld (the current repair cycle). */
+	weldedOn: string | null;
+	fitupAt: number | null;
+	fitupInspector: string | null;
+	fitupResult: Decision | null;
+	visualAt: number | null;
+	visualInspector: string | null;
+	visualResult: Decision | null;
+	ndeRequired: string;
+	/** NDE methods recorded on the current weld, e.g. `RT+MT`. */
+	ndeMethods: string;
+	ndeReports: string;
+	ndeResult: Decision | null;
+	ndeAt: number | null;
+	repairCount: number;
+	voidReason: string | null;
+}
+
+export interface WeldLogColumn {
+	id: string;
+	header: string;
+	value: (row: WeldLogRow) => string | number;
+	/** Shown in the grid until the user chooses otherwise. */
+	shown: boolean;
+	/** The `sort` value of the API that orders by this column, if any. */
+	sort?: WeldLogSort;
+}
+
+export const WELD_LOG_SORTS = ['drawing', 'number', 'state', 'age', 'weldedOn', 'area'] as const;
+export type WeldLogSort = (typeof WELD_LOG_SORTS)[number];
+
+/** A UTC day, as the log and its exports print dates: unambiguous on any site. */
+export function utcDay(ms: number | null): string {
+	return ms == null ? '' : new Date(ms).toISOString().slice(0, 10);
+}
+
+const result = (decision: Decision | null) =>
+	decision === 'accept' ? 'Accept' : decision === 'reject' ? 'Reject' : '';
+
+export const COLUMNS: readonly WeldLogColumn[] = [
+	{ id: 'drawing', header: 'Drawing', value: (r) => r.drawing, shown: true, sort: 'drawing' },
+	{ id: 'revision', header: 'Rev', value: (r) => r.revision ?? '', shown: true },
+	{ id: 'weldNumber', header: 'Weld no.', value: (r) => r.weldNumber, shown: true, sort: 'number' },
+	{ id: 'kind', header: 'Kind', value: (r) => r.kind, shown: true },
+	{ id: 'location', header: 'Shop / field', value: (r) => r.location, shown: false },
+	{ id: 'size', header: 'Size', value: (r) => r.size, shown: true },
+	{ id: 'thickness', header: 'Thickness', value: (r) => r.thickness, shown: false },
+	{ id: 'material', header: 'Material', value: (r) => r.material, shown: false },
+	{ id: 'wps', header: 'WPS', value: (r) => r.wps, shown: false },
+	{ id: 'line', header: 'Line', value: (r) => r.line, shown: false },
+	{ id: 'area', header: 'Area', value: (r) => r.area, shown: true, sort: 'area' },
+	{ id: 'system', header: 'System', value: (r) => r.system, shown: false },
+	{
+		id: 'state',
+		header: 'State',
+		value: (r) => STATE_LOOKS[r.state].label,
+		shown: true,
+		sort: 'state'
+	},
+	{
+		id: 'stateSince',
+		header: 'In state since',
+		value: (r) => utcDay(r.stateSince),
+		shown: true,
+		sort: 'age'
+	},
+	{ id: 'rootWelders', header: 'Root welder', value: (r) => r.rootWelders.join(' '), shown: true },
+	{
+		id: 'fillCapWelders',
+		header: 'Fill / cap welder',
+		value: (r) => r.fillCapWelders.join(' '),
+		shown: false
+	},
+	{
+		id: 'weldedOn',
+		header: 'Welded',
+		value: (r) => r.weldedOn ?? '',
+		shown: true,
+		sort: 'weldedOn'
+	},
+	{ id: 'fitupAt', header: 'Fit-up date', value: (r) => utcDay(r.fitupAt), shown: false },
+	{
+		id: 'fitupInspector',
+		header: 'Fit-up inspector',
+		value: (r) => r.fitupInspector ?? '',
+		shown: false
+	},
+	{ id: 'fitupResult', header: 'Fit-up', value: (r) => result(r.fitupResult), shown: true },
+	{ id: 'visualAt', header: 'Visual date', value: (r) => utcDay(r.visualAt), shown: false },
+	{
+		id: 'visualInspector',
+		header: 'Visual inspector',
+		value: (r) => r.visualInspector ?? '',
+		shown: false
+	},
+	{ id: 'visualResult', header: 'Visual', value: (r) => result(r.visualResult), shown: true },
+	{ id: 'ndeRequired', header: 'NDE required', value: (r) => r.ndeRequired, shown: false },
+	{ id: 'ndeMethods', header: 'NDE done', value: (r) => r.ndeMethods, shown: false },
+	{ id: 'ndeReports', header: 'NDE report', value: (r) => r.ndeReports, shown: false },
+	{ id: 'ndeResult', header: 'NDE', value: (r) => result(r.ndeResult), shown: true },
+	{ id: 'ndeAt', header: 'NDE date', value: (r) => utcDay(r.ndeAt), shown: false },
+	{ id: 'repairCount', header: 'Repairs', value: (r) => r.repairCount, shown: false },
+	{ id: 'voidReason', header: 'Void reason', value: (r) => r.voidReason ?? '', shown: false }
+];

@@ -1,0 +1,5 @@
+import { download } from '$lib/server/weld-log-download';
+import type { RequestHandler } from './$types';
+
+/** The whole filtered weld log as CSV, streamed; same filters and order as the JSON list. */
+export const GET: RequestHandler = ({ locals, url }) => download(locals.projectId!, url, 'csv');

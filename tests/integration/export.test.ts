@@ -1,0 +1,439 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import crypto from 'node:crypto';
+import { createRequire } from 'node:module';
+import { eq } from 'drizzle-orm';
+import yauzl from 'yauzl';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { getDocument, Util } from 'pdfjs-dist/legacy/build/pdf.mjs';
+import { db, schema } from '$lib/server/db';
+import { seedIfEmpty } from '$lib/server/demo/seed';
+import * as exports from '$lib/server/exports';
+import * as joints from '$lib/server/joints';
+import * as storage from '$lib/server/storage';
+import { config } from '$lib/server/config';
+import { resolve as resolveScope } from '$lib/server/export/scope';
+import { buildMarkedUpSet, coverPageCount } from '$lib/server/export/marked-up-set';
+import { emptyCounts } from '$lib/state-counts';
+import { PDFDocument, degrees } from 'pdf-lib';
+import { STAMP } from '$lib/server/export/sheet-frame';
+import * as mail from '$lib/server/mail';
+import type { ExportRequest } from '$lib/schemas/export';
+import { damagedPdf, passwordProtectedPdf } from '../fixtures/pdfs';
+
+const require = createRequire(import.meta.url);
+const standardFontDataUrl =
+	path.join(path.dirname(require.resolve('pdfjs-dist/package.json')), 'standard_fonts') + path.sep;
+
+let lbm: number;
+let turnover: { id: string; email: string };
+
+beforeAll(async () => {
+	await seedIfEmpty();
+	lbm = db.select().from(schema.projects).where(eq(schema.projects.code, 'LBM-20')).get()!.id;
+	turnover = db
+		.select()
+		.from(schema.users)
+		.where(eq(schema.users.email, 'turnover@tacksheet.test'))
+		.get()!;
+}, 120_000);
+
+function unzip(file: string): Promise<{ name: string; bytes: Buffer }[]> {
+	return new Promise((resolve, reject) => {
+		yauzl.open(file, { lazyEntries: true }, (error, zip) => {
+			if (error || !zip) return reject(error);
+			const entries: { name: string; bytes: Buffer }[] = [];
+			zip.on('entry', (entry: yauzl.Entry) => {
+				zip.openReadStream(entry, (err, stream) => {
+					if (err || !stream) return reject(err);
+					const chunks: Buffer[] = [];
+					stream.on('data', (c: Buffer) => chunks.push(c));
+					stream.on('end', () => {
+						entries.push({ name: entry.fileName, bytes: Buffer.concat(chunks) });
+						zip.readEntry();
+					});
+				});
+			});
+			zip.on('end', () => resolve(entries));
+			zip.on('error', reject);
+			zip.readEntry();
+		});
+	});
+}
+
+async function exportAndWait(request: ExportRequest) {
+	const { id } = exports.start(lbm, request, turnover.id, 'http://tacksheet.test');
+	await exports.whenSettled(id);
+	const status = exports.status(id)!;
+	return { id, status };
+}
+
+async function zipOf(id: number) {
+	const file = exports.fileOf(id);
+	const full = storage.pathOf(file.fileKey);
+	expect(crypto.createHash('sha256').update(fs.readFileSync(full)).digest('hex')).toBe(file.sha256);
+	return unzip(full);
+}
+
+interface Manifest {
+	files: { name: string; bytes: number; sha256: string }[];
+	sources: {
+		drawing: string;
+		revision: string;
+		sha256: string;
+		included: boolean;
+		problem?: string;
+	}[];
+	app: { version: string };
+	pages: number;
+}
+
+const sha = (bytes: Uint8Array) => crypto.createHash('sha256').update(bytes).digest('hex');
+
+describe('a turnover set of the demo project', () => {
+	const request: ExportRequest = {
+		scope: { all: true },
+		includeSuperseded: false,
+		acceptedOnly: false
+	};
+	let entries: { name: string; bytes: Buffer }[];
+	let id: number;
+
+	beforeAll(async () => {
+		const done = await exportAndWait(request);
+		id = done.id;
+		expect(done.status.status, done.status.report.join('\n')).toBe('done');
+		entries = await zipOf(id);
+	}, 120_000);
+
+	it('holds the files in a fixed order, each with its SHA-256 in the manifest', () => {
+		expect(entries.map((e) => e.name)).toEqual([
+			'marked-up-set.pdf',
+			'weld-log.xlsx',
+			'weld-log.csv',
+			'inspections.csv',
+			'manifest.json'
+		]);
+		const manifest = JSON.parse(entries.at(-1)!.bytes.toString('utf8')) as Manifest;
+		expect(manifest.files.map((f) => f.name)).toEqual(entries.slice(0, -1).map((e) => e.name));
+		for (const file of manifest.files) {
+			const entry = entries.find((e) => e.name === file.name)!;
+			expect(sha(entry.bytes), file.name).toBe(file.sha256);
+			expect(entry.bytes.byteLength).toBe(file.bytes);
+		}
+		expect(manifest.app.version).toBe(
+			JSON.parse(fs.readFileSync('package.json', 'utf8')).version as string
+		);
+		const revisions = db.select().from(schema.revisions).all();
+		for (const source of manifest.sources) {
+			expect(source.included).toBe(true);
+			expect(revisions.some((r) => r.sha256 === source.sha256 && r.label === source.revision)).toBe(
+				true
+			);
+		}
+	});
+
+	it('stamps every weld number upright, within 2 points of its pin, on rotated sheets too', async () => {
+		const bytes = new Uint8Array(entries[0].bytes);
+		const pdf = await getDocument({ data: bytes.slice(), standardFontDataUrl }).promise;
+		const drawings = resolveScope(lbm, request);
+		const revisions = drawings.flatMap((d) => d.revisions);
+		const covers = coverPageCount(revisions.length);
+		const sheets = revisions.reduce((n, r) => n + r.sheets.length, 0);
+		expect(pdf.numPages).toBe(covers + sheets);
+
+		let pageNo = covers;
+		let checked = 0;
+		let rotatedChecked = 0;
+		for (const revision of revisions) {
+			const pins = joints.pinsOf(revision.id);
+			for (const sheet of revision.sheets) {
+				pageNo++;
+				const page = await pdf.getPage(pageNo);
+				const viewport = page.getViewport({ scale: 1 });
+				const text = await page.getTextContent();
+				const items = text.items.filter((i) => 'str' in i && 'transform' in i);
+				const footer = items.find(
+					(i) => 'str' in i && i.str === `Page ${pageNo} of ${pdf.numPages}`
+				);
+				expect(footer, `footer on page ${pageNo}`).toBeDefined();
+				for (const pin of pins.filter((p) => p.pageIndex === sheet.pageIndex)) {
+					const [vx, vy] = viewport.convertToViewportPoint(pin.x, pin.y);
+					const want = { x: vx, y: vy - STAMP.labelBaseline };
+					let best = Infinity;
+					let upright = false;
+					for (const item of items) {
+						if (!('str' in item) || item.str.trim() !== pin.label) continue;
+						const m = Util.transform(viewport.transform, item.transform);
+						const size = Math.hypot(m[2], m[3]);
+						if (Math.abs(size - STAMP.labelSize) > 0.05) continue;
+						const along = { x: m[0] / size, y: m[1] / size };
+						const centre = {
+							x: m[4] + (along.x * item.width) / 2,
+							y: m[5] + (along.y * item.width) / 2
+						};
+						const distance = Math.hypot(centre.x - want.x, centre.y - want.y);
+						if (distance < best) {
+							best = distance;
+							upright = along.x > 0.999 && Math.abs(along.y) < 0.001;
+						}
+					}
+					expect(best, `${pin.label} on page ${pageNo}`).toBeLessThanOrEqual(2);
+					expect(upright, `${pin.label} upright on page ${pageNo}`).toBe(true);
+					checked++;
+					if (page.rotate === 90) rotatedChecked++;
+				}
+			}
+		}
+		expect(checked).toBeGreaterThan(20);
+		expect(rotatedChecked).toBeGreaterThan(0);
+		await pdf.destroy();
+	});
+
+	it('writes one weld-log row per joint and every inspection record', () => {
+		const jointCount = db
+			.select()
+			.from(schema.joints)
+			.where(eq(schema.joints.projectId, lbm))
+			.all().length;
+		const csv = entries[2].bytes.toString('utf8').trim().split('\r\n');
+		expect(csv.length - 1).toBe(jointCount);
+		const inspectionCount = db
+			.select()
+			.from(schema.inspections)
+			.innerJoin(schema.joints, eq(schema.joints.id, schema.inspections.jointId))
+			.where(eq(schema.joints.projectId, lbm))
+			.all().length;
+		const lines = entries[3].bytes.toString('utf8').trim().split('\r\n');
+		expect(lines.length - 1).toBe(inspectionCount);
+		expect(lines[0]).toContain('Readings as typed');
+	});
+
+	it('gives the same files in the same order for unchanged data', async () => {
+		const again = await exportAndWait(request);
+		expect(again.status.status).toBe('done');
+		const second = await zipOf(again.id);
+		expect(second.map((e) => e.name)).toEqual(entries.map((e) => e.name));
+		for (const name of ['marked-up-set.pdf', 'weld-log.csv', 'inspections.csv']) {
+			expect(sha(second.find((e) => e.name === name)!.bytes), name).toBe(
+				sha(entries.find((e) => e.name === name)!.bytes)
+			);
+		}
+	}, 120_000);
+
+	it('tells the person who started it, with the link', () => {
+		const message = mail.latestTo(turnover.email);
+		expect(message?.subject).toBe('Turnover set ready: LBM-20');
+		expect(message?.text).toContain('http://tacksheet.test/api/exports/');
+	});
+});
+
+describe('a damaged or locked source', () => {
+	it('fails that drawing with a clear line and completes the rest', async () => {
+		const drawings = resolveScope(lbm, {
+			scope: { all: true },
+			includeSuperseded: false,
+			acceptedOnly: false
+		});
+		const [damaged, locked, ...rest] = drawings;
+		const keep = rest.slice(0, 2);
+		const damagedRev = damaged.revisions[0];
+		const lockedRev = locked.revisions[0];
+		const originals = [
+			await storage.readAll(damagedRev.fileKey),
+			await storage.readAll(lockedRev.fileKey)
+		];
+		await storage.put(damagedRev.fileKey, damagedPdf());
+		await storage.put(lockedRev.fileKey, passwordProtectedPdf());
+		try {
+			const { id, status } = await exportAndWait({
+				scope: { drawings: [damaged.id, locked.id, ...keep.map((d) => d.id)] },
+				includeSuperseded: false,
+				acceptedOnly: false
+			});
+			expect(status.status).toBe('done');
+			expect(status.report.find((l) => l.startsWith(`${damaged.number} rev`))).toMatch(
+				/not included, the stored PDF is damaged/
+			);
+			expect(status.report.find((l) => l.startsWith(`${locked.number} rev`))).toMatch(
+				/not included, the stored PDF is password-protected/
+			);
+			const entries = await zipOf(id);
+			const manifest = JSON.parse(entries.at(-1)!.bytes.toString('utf8')) as Manifest;
+			expect(manifest.sources.filter((s) => !s.included).map((s) => s.drawing)).toEqual([
+				damaged.number,
+				locked.number
+			]);
+			const pdf = await getDocument({ data: new Uint8Array(entries[0].bytes), standardFontDataUrl })
+				.promise;
+			const sheets = keep.reduce((n, d) => n + d.revisions[0].sheets.length, 0);
+			expect(pdf.numPages).toBe(coverPageCount(4) + sheets);
+			await pdf.destroy();
+		} finally {
+			await storage.put(damagedRev.fileKey, originals[0]);
+			await storage.put(lockedRev.fileKey, originals[1]);
+		}
+	}, 120_000);
+});
+
+describe('the job', () => {
+	it('refuses a second identical job while one runs, and can be cancelled', async () => {
+		const request: ExportRequest = {
+			scope: { all: true },
+			includeSuperseded: true,
+			acceptedOnly: false
+		};
+		const first = exports.start(lbm, request, turnover.id, 'http://tacksheet.test');
+		expect(() => exports.start(lbm, request, turnover.id, 'http://tacksheet.test')).toThrow(
+			expect.objectContaining({ status: 409, exportId: first.id })
+		);
+		const other = exports.cancel(first.id, turnover.id);
+		expect(other.status).toBe('cancelled');
+		await exports.whenSettled(first.id);
+		expect(exports.status(first.id)).toMatchObject({ status: 'cancelled', fileUrl: undefined });
+		expect(() => exports.fileOf(first.id)).toThrow(expect.objectContaining({ status: 409 }));
+		const folder = path.join(config.uploadsDir, 'exports');
+		const leftovers = fs.existsSync(folder)
+			? fs.readdirSync(folder).filter((name) => name.endsWith('.part'))
+			: [];
+		expect(leftovers).toEqual([]);
+		// Once it is over, the same set may be asked for again.
+		const next = exports.start(lbm, request, turnover.id, 'http://tacksheet.test');
+		exports.cancel(next.id, turnover.id);
+		await exports.whenSettled(next.id);
+	});
+
+	it('treats the same drawings in another order as the same set', () => {
+		const ids = resolveScope(lbm, {
+			scope: { all: true },
+			includeSuperseded: false,
+			acceptedOnly: false
+		})
+			.slice(0, 3)
+			.map((d) => d.id);
+		const a = exports.start(
+			lbm,
+			{ scope: { drawings: ids }, includeSuperseded: false, acceptedOnly: true },
+			turnover.id,
+			''
+		);
+		expect(() =>
+			exports.start(
+				lbm,
+				{ scope: { drawings: [...ids].reverse() }, includeSuperseded: false, acceptedOnly: true },
+				turnover.id,
+				''
+			)
+		).toThrow(expect.objectContaining({ status: 409 }));
+		exports.cancel(a.id, turnover.id);
+	});
+
+	it('marks a job left running by a stopped server as failed', () => {
+		const row = db
+			.insert(schema.exports)
+			.values({
+				projectId: lbm,
+				scope: { all: true },
+				scopeKey: 'stale',
+				status: 'running',
+				requestedBy: turnover.id
+			})
+			.returning()
+			.get();
+		expect(exports.recoverInterrupted()).toBeGreaterThanOrEqual(1);
+		const after = exports.status(row.id)!;
+		expect(after.status).toBe('failed');
+		expect(after.report.at(-1)).toMatch(/server stopped/);
+	});
+});
+
+describe('stamping a sheet whose boxes do not start at zero', () => {
+	it('puts each number over its pin, upright, for every rotation', async () => {
+		const source = await PDFDocument.create();
+		for (const rotation of [0, 90, 180, 270]) {
+			const page = source.addPage([1000, 600]);
+			page.setMediaBox(-50, -50, 1000, 600);
+			page.setCropBox(0, 0, 800, 500);
+			page.setRotation(degrees(rotation));
+		}
+		const bytes = await source.save();
+		const box = { x0: 0, y0: 0, x1: 800, y1: 500 };
+		const rotations = [0, 90, 180, 270] as const;
+		const pins = rotations.flatMap((_, pageIndex) => [
+			{ pageIndex, x: 80, y: 60, state: 'accepted' as const, label: 'FW-7-R1', needsReview: true },
+			{ pageIndex, x: 700, y: 430, state: 'repair' as const, label: '12', needsReview: false }
+		]);
+		const set = await buildMarkedUpSet({
+			cover: {
+				projectCode: 'T-1',
+				projectName: 'Boxes',
+				client: '',
+				scope: 'Whole project',
+				options: [],
+				exportDay: '2026-12-02',
+				exportedBy: 'test',
+				counts: emptyCounts(),
+				warnings: []
+			},
+			drawings: [
+				{
+					id: 1,
+					number: 'OFFSET-1',
+					title: '',
+					area: '',
+					system: '',
+					revisions: [
+						{
+							id: 1,
+							label: '0',
+							status: 'current',
+							fileKey: 'x',
+							sha256: '',
+							bytes: 0,
+							supersededBy: null,
+							sheets: rotations.map((rotation, pageIndex) => ({ pageIndex, ...box, rotation }))
+						}
+					]
+				}
+			],
+			pinsOf: () => pins,
+			readFile: async () => bytes,
+			fixedDate: new Date('2026-12-02T00:00:00Z'),
+			onProgress: () => {},
+			checkpoint: () => {}
+		});
+		const pdf = await getDocument({ data: set.bytes.slice(), standardFontDataUrl }).promise;
+		expect(pdf.numPages).toBe(1 + rotations.length);
+		for (const [pageIndex, rotation] of rotations.entries()) {
+			const page = await pdf.getPage(2 + pageIndex);
+			expect(page.rotate).toBe(rotation);
+			const viewport = page.getViewport({ scale: 1 });
+			const items = (await page.getTextContent()).items.filter((i) => 'str' in i);
+			for (const pin of pins.filter((p) => p.pageIndex === pageIndex)) {
+				const item = items.find((i) => 'str' in i && i.str === pin.label);
+				if (!item || !('str' in item)) throw new Error(`${pin.label} missing at ${rotation}°`);
+				const m = Util.transform(viewport.transform, item.transform);
+				const [vx, vy] = viewport.convertToViewportPoint(pin.x, pin.y);
+				expect(Math.abs(m[4] + item.width / 2 - vx), `${pin.label} x at ${rotation}°`).toBeLessThan(
+					2
+				);
+				expect(
+					Math.abs(m[5] - (vy - STAMP.labelBaseline)),
+					`${pin.label} y at ${rotation}°`
+				).toBeLessThan(2);
+				expect(m[1]).toBeCloseTo(0, 3);
+				expect(m[0]).toBeGreaterThan(0);
+			}
+			// The footer sits on the visible sheet, at its shown bottom edge.
+			const footer = items.find(
+				(i) => 'str' in i && i.str.startsWith('Page ') && i.str.endsWith(`of ${pdf.numPages}`)
+			);
+			if (!footer || !('str' in footer)) throw new Error('footer missing');
+			const f = Util.transform(viewport.transform, footer.transform);
+			expect(f[5]).toBeGreaterThan(viewport.height - STAMP.footerHeight);
+			expect(f[5]).toBeLessThan(viewport.height);
+			expect(f[4] + footer.width).toBeLessThan(viewport.width);
+		}
+		await pdf.destroy();
+	});
+});
