@@ -64,13 +64,44 @@ const guardCredentials: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
+const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
+/** How long a decoded session cookie is trusted before Auth.js reads it again. */
+const SESSION_CACHE_MS = 30_000;
+const sessions = new Map<string, { userId: string | null; until: number }>();
+
+/**
+ * Who the session cookie belongs to. Decoding it through Auth.js costs a few milliseconds a
+ * request, so the answer is kept for a short while per cookie value; the user row and roles
+ * are still read on every request, so a role change or a disabled account applies at once.
+ */
+async function sessionUserId(event: RequestEvent): Promise<string | null> {
+	const cookie = SESSION_COOKIES.map((name) => event.cookies.get(name)).find(Boolean);
+	if (!cookie) {
+		// A session too large for one cookie comes in numbered chunks: let Auth.js join them.
+		const chunked = event.cookies
+			.getAll()
+			.some((c) => SESSION_COOKIES.some((name) => c.name.startsWith(`${name}.`)));
+		if (!chunked) return null;
+		const session = await event.locals.auth();
+		return session?.user?.id ?? null;
+	}
+	const now = Date.now();
+	const known = sessions.get(cookie);
+	if (known && known.until > now) return known.userId;
+	const session = await event.locals.auth();
+	const userId = session?.user?.id ?? null;
+	if (sessions.size > 5000) sessions.clear();
+	sessions.set(cookie, { userId, until: now + SESSION_CACHE_MS });
+	return userId;
+}
+
 async function identify(event: RequestEvent): Promise<App.Locals['user']> {
 	const header = event.request.headers.get('authorization');
 	if (header?.startsWith('Bearer ') && event.url.pathname.startsWith('/api/')) {
 		return users.principalFromToken(header.slice(7).trim());
 	}
-	const session = await event.locals.auth();
-	return session?.user?.id ? users.principal(session.user.id) : null;
+	const userId = await sessionUserId(event);
+	return userId ? users.principal(userId) : null;
 }
 
 /**

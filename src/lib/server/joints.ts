@@ -3,7 +3,7 @@
  * derived from the records and cached in the same transaction as every change. Every write
  * names the version it was based on; a stale one is refused with 409.
  */
-import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
 import * as events from './events';
@@ -108,7 +108,8 @@ export function refreshState(
 // Reading -------------------------------------------------------------------------------
 
 /** The pins of one revision with their joints' states, as the overlay draws them. */
-export function pinsOf(revisionId: number) {
+/** Prepared once: the overlay asks for its pins on every change anyone makes. */
+function pinsQuery() {
 	return db
 		.select({
 			pinId: p.id,
@@ -126,9 +127,16 @@ export function pinsOf(revisionId: number) {
 		})
 		.from(p)
 		.innerJoin(j, eq(j.id, p.jointId))
-		.where(eq(p.revisionId, revisionId))
+		.where(eq(p.revisionId, sql.placeholder('revisionId')))
 		.orderBy(asc(j.sortKey))
-		.all()
+		.prepare();
+}
+let preparedPins: ReturnType<typeof pinsQuery> | undefined;
+
+export function pinsOf(revisionId: number) {
+	preparedPins ??= pinsQuery();
+	return preparedPins
+		.all({ revisionId })
 		.map((row) => ({ ...row, label: displayWeldNumber(row.number, row.repairCycle) }));
 }
 
