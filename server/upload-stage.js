@@ -19,11 +19,11 @@ import multer from 'multer';
 const ROUTES = [
 	{
 		pattern: /^\/api\/projects\/(\d+)\/drawings\/?$/,
-		permit: (m) => `/api/projects/${m[1]}/uploads/permit`
+		permit: (m) => `/api/projects/${m[1]}/upload-permit`
 	},
 	{
 		pattern: /^\/api\/projects\/(\d+)\/drawings\/(\d+)\/revisions\/?$/,
-		permit: (m) => `/api/projects/${m[1]}/uploads/permit?drawing=${m[2]}`
+		permit: (m) => `/api/projects/${m[1]}/upload-permit?drawing=${m[2]}`
 	}
 ];
 

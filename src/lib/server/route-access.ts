@@ -88,7 +88,7 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.read'),
 		POST: project('drawing.upload')
 	},
-	'/api/projects/[projectId=id]/uploads/permit': { GET: project('drawing.upload') },
+	'/api/projects/[projectId=id]/upload-permit': { GET: project('drawing.upload') },
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/pins': {
