@@ -4,6 +4,7 @@
  * and changed through the API with the joint's version, reloading on a 409.
  */
 import type { JointState } from '$lib/joint-state';
+import { ProjectFeed } from '$lib/components/project-feed.svelte';
 
 export interface PinItem {
 	pinId: number;
@@ -56,10 +57,8 @@ export function isApiFailure(value: unknown): value is ApiFailure {
 export class PinStore {
 	items = $state<PinItem[]>([]);
 	loaded = $state(false);
-	live = $state(false);
 	error = $state('');
-	private source: EventSource | null = null;
-	private poll: ReturnType<typeof setInterval> | null = null;
+	#feed = $state<ProjectFeed | null>(null);
 	private refreshing: Promise<void> | null = null;
 
 	constructor(
@@ -90,31 +89,14 @@ export class PinStore {
 	/** Follow the project's changes; returns the function that stops following. */
 	follow(): () => void {
 		this.refresh();
-		const startPolling = () => {
-			this.poll ??= setInterval(() => this.refresh(), POLL_MS);
-		};
-		if (typeof EventSource === 'undefined') startPolling();
-		else {
-			this.source = new EventSource(`/api/projects/${this.projectId}/events`);
-			this.source.onopen = () => {
-				this.live = true;
-				if (this.poll) clearInterval(this.poll);
-				this.poll = null;
-				// Changes made while the stream was down.
-				this.refresh();
-			};
-			this.source.onmessage = () => this.refresh();
-			this.source.onerror = () => {
-				this.live = false;
-				startPolling();
-			};
-		}
-		return () => {
-			this.source?.close();
-			this.source = null;
-			if (this.poll) clearInterval(this.poll);
-			this.poll = null;
-		};
+		// Written, never read, here: the effect that calls follow() must not depend on it.
+		const feed = new ProjectFeed(this.projectId, () => this.refresh(), POLL_MS);
+		this.#feed = feed;
+		return feed.start();
+	}
+
+	get live(): boolean {
+		return this.#feed?.live ?? false;
 	}
 
 	async place(input: {

@@ -2,6 +2,7 @@
  * The outstanding board, kept current: fetched from the API with the filters, refreshed when
  * the project's event stream says someone recorded something (polling when the stream is down).
  */
+import { ProjectFeed } from '$lib/components/project-feed.svelte';
 import type { Board } from '$lib/server/outstanding';
 
 export type BoardData = Board;
@@ -21,10 +22,8 @@ const SETTLE_MS = 400;
 export class BoardStore {
 	data = $state<BoardData | null>(null);
 	error = $state('');
-	live = $state(false);
+	#feed = $state<ProjectFeed | null>(null);
 	filters = $state<BoardFilters>({ area: '', drawing: '', welder: '' });
-	private source: EventSource | null = null;
-	private poll: ReturnType<typeof setInterval> | null = null;
 	private settle: ReturnType<typeof setTimeout> | null = null;
 	private generation = 0;
 
@@ -62,30 +61,17 @@ export class BoardStore {
 
 	follow(): () => void {
 		this.refresh();
-		const startPolling = () => {
-			this.poll ??= setInterval(() => this.refresh(), POLL_MS);
-		};
-		if (typeof EventSource === 'undefined') startPolling();
-		else {
-			this.source = new EventSource(`/api/projects/${this.projectId}/events`);
-			this.source.onopen = () => {
-				this.live = true;
-				if (this.poll) clearInterval(this.poll);
-				this.poll = null;
-				this.soon();
-			};
-			this.source.onmessage = () => this.soon();
-			this.source.onerror = () => {
-				this.live = false;
-				startPolling();
-			};
-		}
+		// Written, never read, here: the effect that calls follow() must not depend on it.
+		const feed = new ProjectFeed(this.projectId, () => this.soon(), POLL_MS);
+		this.#feed = feed;
+		const stop = feed.start();
 		return () => {
-			this.source?.close();
-			this.source = null;
-			if (this.poll) clearInterval(this.poll);
+			stop();
 			if (this.settle) clearTimeout(this.settle);
-			this.poll = null;
 		};
+	}
+
+	get live(): boolean {
+		return this.#feed?.live ?? false;
 	}
 }
