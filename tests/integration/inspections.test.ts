@@ -3,7 +3,7 @@
  * SQLite file with the demo job. Limits are ASME B31.3-2018 normal fluid service, as the
  * engine's set gives them (reference/standards.md §2).
  */
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
@@ -25,6 +25,7 @@ import {
 	GET as listWelds,
 	POST as postWeld
 } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
+import { demoDrawing, demoUserId } from '../fixtures/demo';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -35,21 +36,9 @@ let revisionId: number;
 
 beforeAll(async () => {
 	await seedIfEmpty();
-	const userId = (email: string) =>
-		db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.id;
-	inspectorId = userId('inspector@tacksheet.test');
-	foremanId = userId('foreman@tacksheet.test');
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1105'))
-		.get()!;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
+	inspectorId = demoUserId('inspector@tacksheet.test');
+	foremanId = demoUserId('foreman@tacksheet.test');
+	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1105'));
 }, 120_000);
 
 // Factories ----------------------------------------------------------------------------------

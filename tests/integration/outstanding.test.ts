@@ -3,7 +3,7 @@
  * SQLite file with the demo job. Counts are checked against direct SQL counts, owed lists
  * against their order (oldest in the state first) and the filters against what they name.
  */
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
@@ -16,6 +16,7 @@ import { OWED_STATES } from '$lib/outstanding';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { GET } from '../../src/routes/api/projects/[projectId=id]/outstanding/+server';
+import { demoDrawing, demoUserId } from '../fixtures/demo';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -27,22 +28,9 @@ let foremanId: string;
 
 beforeAll(async () => {
 	await seedIfEmpty();
-	const userId = (email: string) =>
-		db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.id;
-	inspectorId = userId('inspector@tacksheet.test');
-	foremanId = userId('foreman@tacksheet.test');
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-		.get()!;
-	projectId = drawing.projectId;
-	drawingId = drawing.id;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
+	inspectorId = demoUserId('inspector@tacksheet.test');
+	foremanId = demoUserId('foreman@tacksheet.test');
+	({ projectId, revisionId, drawingId } = demoDrawing('LBM-20-ISO-1104'));
 }, 120_000);
 
 const query = (q: Record<string, string | number> = {}) => outstandingQuerySchema.parse(q);

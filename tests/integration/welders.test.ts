@@ -4,7 +4,7 @@
  * QW-322.1 and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006
  * edition), reference/standards.md §7; the register reuses welds.ts's rule for it.
  */
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
@@ -15,6 +15,7 @@ import * as welds from '$lib/server/welds';
 import * as users from '$lib/server/users';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { GET, POST } from '../../src/routes/api/projects/[projectId=id]/welders/+server';
+import { demoDrawing, demoUserId } from '../fixtures/demo';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,21 +26,9 @@ let foremanId: string;
 
 beforeAll(async () => {
 	await seedIfEmpty();
-	const userId = (email: string) =>
-		db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.id;
-	inspectorId = userId('inspector@tacksheet.test');
-	foremanId = userId('foreman@tacksheet.test');
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-		.get()!;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
+	inspectorId = demoUserId('inspector@tacksheet.test');
+	foremanId = demoUserId('foreman@tacksheet.test');
+	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
 }, 120_000);
 
 async function post(body: unknown) {

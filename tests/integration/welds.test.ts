@@ -16,6 +16,7 @@ import { deriveJointState } from '$lib/joint-state';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import { GET, POST } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
+import { demoDrawing, demoUserId } from '../fixtures/demo';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -29,22 +30,10 @@ const admin = () => ({ id: adminId, isAdmin: true });
 
 beforeAll(async () => {
 	await seedIfEmpty();
-	const userId = (email: string) =>
-		db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.id;
-	inspectorId = userId('inspector@tacksheet.test');
-	foremanId = userId('foreman@tacksheet.test');
-	adminId = userId('admin@tacksheet.test');
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-		.get()!;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
+	inspectorId = demoUserId('inspector@tacksheet.test');
+	foremanId = demoUserId('foreman@tacksheet.test');
+	adminId = demoUserId('admin@tacksheet.test');
+	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
 }, 120_000);
 
 // Factories ----------------------------------------------------------------------------------
