@@ -380,8 +380,15 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			input.supersedes !== undefined ? supersededRow(tx, joint, input, derived) : undefined;
 		checkStageOrder(tx, joint, input, state, derived, correcting);
 
-		const verdict = judged(tx, joint, input);
 		const reason = input.reason?.trim() || null;
+		if (correcting && (reason === null || reason.length < 3)) {
+			throw new JointError(
+				`Say why inspection #${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
+				400,
+				'reason'
+			);
+		}
+		const verdict = judged(tx, joint, input);
 		const againstVerdict =
 			(input.decision === 'accept' && verdict.verdict === 'outside') ||
 			(input.decision === 'reject' && verdict.verdict === 'within');
