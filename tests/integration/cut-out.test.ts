@@ -230,7 +230,12 @@ describe('cutting out a joint', () => {
 		const old = jointInRepair();
 		const first = joints.cutOut(old.id, 'Cut out after R2 failed RT', old.version, inspectorId);
 		const plainVoid = newJoint();
-		joints.voidJoint(plainVoid.id, 'Deleted by field change FCR-88', plainVoid.version, inspectorId);
+		joints.voidJoint(
+			plainVoid.id,
+			'Deleted by field change FCR-88',
+			plainVoid.version,
+			inspectorId
+		);
 		const before = jointsOnDrawing().length;
 		const again = await call(postCutOut, old.id, inspectorId, {
 			reason: 'Cut out again',
@@ -321,7 +326,9 @@ describe('cutting out a joint', () => {
 			db
 				.select()
 				.from(schema.joints)
-				.where(and(eq(schema.joints.drawingId, drawingId), eq(schema.joints.replacesJointId, old.id)))
+				.where(
+					and(eq(schema.joints.drawingId, drawingId), eq(schema.joints.replacesJointId, old.id))
+				)
 				.all()
 		).toEqual([]);
 	});

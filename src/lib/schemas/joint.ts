@@ -77,7 +77,9 @@ export const cutOutSchema = z.object({
 	reason: z
 		.string({ error: 'Say why the joint is cut out.' })
 		.trim()
-		.min(3, { error: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").' })
+		.min(3, {
+			error: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").'
+		})
 		.max(300, { error: 'Keep the reason under 300 characters.' }),
 	version: z.number({ error: 'Send the joint version you last saw.' }).int().min(1)
 });

@@ -270,11 +270,8 @@ export function detail(jointId: number) {
 				.get() ?? null)
 		: null;
 	const replacedBy =
-		db
-			.select({ id: j.id, number: j.number })
-			.from(j)
-			.where(eq(j.replacesJointId, jointId))
-			.get() ?? null;
+		db.select({ id: j.id, number: j.number }).from(j).where(eq(j.replacesJointId, jointId)).get() ??
+		null;
 	return {
 		...joint,
 		label: displayWeldNumber(joint.number, joint.repairCycle),
