@@ -106,6 +106,18 @@ test('a visual result corrected with a reason, then the weld cut out and replace
 		.getByLabel(/Reason for the correction/)
 		.fill('Re-gauged at the 6 o’clock toe: undercut 1/16 in');
 	await page.screenshot({ path: test.info().outputPath('correction-form.png') });
+
+	// Meanwhile someone else changes the joint: the card shows the API's 409 message, keeps
+	// what was typed, and the second try goes through.
+	const now = await (await inspector.get(`/api/joints/${pin!.jointId}`)).json();
+	const edit = await inspector.patch(`/api/joints/${pin!.jointId}`, {
+		headers: { origin: BASE_URL },
+		data: { spool: 'SP-2', version: now.version }
+	});
+	expect(edit.status()).toBe(200);
+	await form.getByRole('button', { name: 'Sign the correction' }).tap();
+	await expect(form.getByRole('alert')).toContainText(/Someone else changed joint .* Reload it/);
+	await expect(undercut).toHaveValue('1/16');
 	await form.getByRole('button', { name: 'Sign the correction' }).tap();
 
 	await expect(card.getByTestId('joint-state')).toHaveText('Repair');

@@ -22,6 +22,7 @@ import {
 import {
 	deriveJointState,
 	displayWeldNumber,
+	effectiveInspections,
 	STATE_LOOKS,
 	type DerivedState,
 	type StateInput
@@ -147,12 +148,6 @@ function stageName(stage: Row['stage'], method?: string | null): string {
 	return stage === 'nde' && method ? method : STAGE_NAMES[stage];
 }
 
-/** The rows still in force: a correction takes the place of the row it names. */
-function effective(rows: readonly Row[]): Row[] {
-	const superseded = new Set(rows.map((r) => r.supersedesId).filter((id) => id != null));
-	return rows.filter((r) => !superseded.has(r.id));
-}
-
 function dateOf(ms: number): string {
 	return new Date(ms).toISOString().slice(0, 10);
 }
@@ -195,7 +190,7 @@ function checkStageOrder(
 			'stage'
 		);
 	}
-	const rows = effective(state.inspections).filter(
+	const rows = effectiveInspections(state.inspections).filter(
 		(r) => r.repairCycle === cycle && r.id !== correcting?.id
 	);
 	const previous = (match: (r: Row) => boolean) => rows.filter(match).at(-1);
