@@ -1,6 +1,11 @@
 /**
  * Which signed inspection records may still be corrected. Pure, so the joint card offers
  * "Correct" exactly where the server (src/lib/server/inspections.ts) would take a correction.
+ *
+ * Who: any inspector of the project (`inspection.record`), not only the one who signed. A QC
+ * department re-gauges with another inspector, and a record must not stay wrong because its
+ * signer has left the job; the correction carries its own signature, time and reason, and the
+ * record it replaces stays readable, so nothing is hidden.
  */
 import type { InspectionStage } from './joint-state';
 
