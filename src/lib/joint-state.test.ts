@@ -136,6 +136,31 @@ describe('joint state from its records', () => {
 		expect(s.state).toBe('accepted');
 	});
 
+	it('puts a correction in the place of the row it names, also a correction of a correction', () => {
+		// Fit-up rejected, re-fitted and accepted; then the first (rejected) record is corrected
+		// for a misread gauge but still rejected. The re-fit's acceptance is still the last word.
+		const first = row('fitup', 'reject');
+		const refit = row('fitup', 'accept');
+		const fixed = row('fitup', 'reject', { supersedesId: first.id });
+		expect(deriveJointState(joint({ inspections: [first, refit, fixed] })).state).toBe(
+			'ready_to_weld'
+		);
+		// A visual corrected twice: the last correction in the chain decides.
+		const visual = row('visual', 'accept');
+		const once = row('visual', 'reject', { supersedesId: visual.id });
+		const twice = row('visual', 'accept', { supersedesId: once.id });
+		const welded = { welds: [{ repairCycle: 0 }] };
+		expect(
+			deriveJointState(joint({ ...welded, inspections: [row('fitup', 'accept'), visual, once] }))
+				.state
+		).toBe('repair');
+		expect(
+			deriveJointState(
+				joint({ ...welded, inspections: [row('fitup', 'accept'), visual, once, twice] })
+			).state
+		).toBe('accepted');
+	});
+
 	it('is void whatever the records say once voided', () => {
 		expect(
 			deriveJointState(

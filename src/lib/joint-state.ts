@@ -157,10 +157,22 @@ export interface DerivedState {
 	repairCycle: number;
 }
 
-/** The last word at each stage: a correction supersedes the row it names. */
-function effective(inspections: readonly StateInspection[]): StateInspection[] {
-	const superseded = new Set(inspections.map((i) => i.supersedesId).filter((id) => id != null));
-	return inspections.filter((i) => !superseded.has(i.id));
+/**
+ * The rows in force: a correction takes the place of the row it names, in that row's place in
+ * the order, so correcting an earlier fit-up never outranks the re-fit recorded after it.
+ */
+export function effectiveInspections(inspections: readonly StateInspection[]): StateInspection[] {
+	const ids = new Set(inspections.map((i) => i.id));
+	const correctionOf = new Map<number, StateInspection>();
+	for (const i of inspections) if (i.supersedesId != null) correctionOf.set(i.supersedesId, i);
+	const rows: StateInspection[] = [];
+	for (const i of inspections) {
+		if (i.supersedesId != null && ids.has(i.supersedesId)) continue;
+		let last = i;
+		for (let next = correctionOf.get(last.id); next; next = correctionOf.get(last.id)) last = next;
+		rows.push(last);
+	}
+	return rows;
 }
 
 function latest(
@@ -175,7 +187,7 @@ export function deriveJointState(input: StateInput): DerivedState {
 	const repairCycle = input.welds.reduce((max, w) => Math.max(max, w.repairCycle), 0);
 	if (input.voided) return { state: 'void', repairCycle };
 
-	const rows = effective(input.inspections);
+	const rows = effectiveInspections(input.inspections);
 
 	if (input.welds.length === 0) {
 		const fitup = latest(rows, (r) => r.stage === 'fitup');

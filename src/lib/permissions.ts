@@ -31,6 +31,7 @@ export const PROJECT_ACTIONS = [
 	'pin.review',
 	'joint.edit',
 	'joint.void',
+	'joint.cutout',
 	'inspection.record',
 	'nde.select',
 	'weld.record',
@@ -55,7 +56,9 @@ const ROLE_ACTIONS: Record<ProjectRole, readonly ProjectAction[]> = {
 		'joint.edit',
 		'joint.void'
 	],
-	// Only an inspector signs inspection results.
+	// Only an inspector signs inspection results. A cut-out is a QC decision (after repeated
+	// repair failures or on request), so it is the inspector's and the QC manager's, not the
+	// document controller's, who voids joints a revision deleted.
 	inspector: [
 		'project.read',
 		'project.export',
@@ -64,6 +67,7 @@ const ROLE_ACTIONS: Record<ProjectRole, readonly ProjectAction[]> = {
 		'pin.review',
 		'joint.edit',
 		'joint.void',
+		'joint.cutout',
 		'inspection.record',
 		'nde.select',
 		'weld.record'

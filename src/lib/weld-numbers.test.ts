@@ -1,5 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { insertedWeldNumber, nextWeldNumber, weldNumberSortKey } from './weld-numbers';
+import {
+	cutOutWeldNumber,
+	insertedWeldNumber,
+	nextWeldNumber,
+	weldNumberSortKey
+} from './weld-numbers';
 
 describe('weld number order', () => {
 	// Common practice: a joint added between 5 and 6 becomes 5A, 5B, so existing numbers never move.
@@ -18,13 +23,39 @@ describe('weld number order', () => {
 	});
 
 	// Common practice (published contractor numbering procedures): inserted joints take the
-	// next letter after the number before them; R (repair) and M (modified) are not used.
-	it('inserts 5A, 5B … after 5, skipping the letters that mean repair and modified', () => {
+	// next letter after the number before them; R (repair), M (modified) and N (cut-out) are
+	// not used.
+	it('inserts 5A, 5B … after 5, skipping the letters that mean repair, modified and cut-out', () => {
 		expect(insertedWeldNumber('5', ['4', '5', '6'])).toBe('5A');
 		expect(insertedWeldNumber('5', ['5', '5A'])).toBe('5B');
 		expect(insertedWeldNumber('5A', ['5', '5A', '5B'])).toBe('5C');
-		const upToQ = 'ABCDEFGHJKLNPQ'.split('').map((l) => `5${l}`);
+		const upToQ = 'ABCDEFGHJKLPQ'.split('').map((l) => `5${l}`);
 		expect(insertedWeldNumber('5', upToQ)).toBe('5S');
 		expect(insertedWeldNumber('FW-3', ['FW-3'])).toBe('FW-3A');
+	});
+});
+
+describe('cut-out numbers', () => {
+	// Common practice (contractors' weld numbering procedures): a cut-out keeps its number with
+	// an N suffix, and the history of the original stays in the log under the old number.
+	it('gives 12N for a cut-out of 12, then 12N2, 12N3 for cut-outs of the replacement', () => {
+		expect(cutOutWeldNumber('12', ['11', '12', '13'])).toBe('12N');
+		expect(cutOutWeldNumber('12N', ['12', '12N'])).toBe('12N2');
+		expect(cutOutWeldNumber('12N2', ['12', '12N', '12N2'])).toBe('12N3');
+		expect(cutOutWeldNumber('FW-3', ['FW-3'])).toBe('FW-3N');
+		expect(cutOutWeldNumber('5A', ['5', '5A'])).toBe('5AN');
+	});
+
+	it('never takes a number already used on the drawing', () => {
+		expect(cutOutWeldNumber('12', ['12', '12N'])).toBe('12N2');
+		expect(cutOutWeldNumber('12', ['12', '12n', '12N2'])).toBe('12N3');
+	});
+
+	it('sorts replacements right after the joint they replace', () => {
+		const numbers = ['13', '12N2', '12', '12N10', '12N', '12A'];
+		const sorted = [...numbers].sort((a, b) =>
+			weldNumberSortKey(a) < weldNumberSortKey(b) ? -1 : 1
+		);
+		expect(sorted).toEqual(['12', '12A', '12N', '12N2', '12N10', '13']);
 	});
 });

@@ -421,10 +421,22 @@ describe('corrections are new rows that supersede', () => {
 			expect.objectContaining({ status: 409, message: expect.stringMatching(/correction/) })
 		);
 
+		// A correction says why; without a reason nothing is stored.
+		expect(() =>
+			inspect(joint.id, {
+				stage: 'visual',
+				readings: OUTSIDE,
+				decision: 'reject',
+				supersedes: original.inspection.id
+			})
+		).toThrow(expect.objectContaining({ status: 400, field: 'reason' }));
+		expect(inspections.list(joint.id)).toHaveLength(2);
+
 		const correction = inspect(joint.id, {
 			stage: 'visual',
 			readings: OUTSIDE,
 			decision: 'reject',
+			reason: 'Re-gauged in daylight: undercut is 1/16 in, not 1/32 in',
 			supersedes: original.inspection.id
 		});
 		expect(correction.inspection.supersedesId).toBe(original.inspection.id);
@@ -533,6 +545,7 @@ describe('stage order', () => {
 				stage: 'nde',
 				method: 'RT',
 				decision: 'accept',
+				reason: 'Report RT-1105-07 re-read: film density checked',
 				supersedes: rt.inspection.id,
 				version: rt.joint.version
 			}),
@@ -543,6 +556,7 @@ describe('stage order', () => {
 				stage: 'nde',
 				method: 'RT',
 				decision: 'reject',
+				reason: 'Second reading of the film',
 				supersedes: stale.inspection.id,
 				version: rt.joint.version
 			})

@@ -3,6 +3,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import { stateInput } from '$lib/server/joints';
+import { passProcesses } from '$lib/server/welds';
 import * as storage from '$lib/server/storage';
 import { deriveJointState, JOINT_STATES } from '$lib/joint-state';
 import { verifyPassword } from '$lib/server/passwords';
@@ -126,5 +127,40 @@ describe('demo seed', () => {
 		]);
 		const voided = db.select().from(schema.joints).where(isNotNull(schema.joints.voidReason)).all();
 		expect(voided.length).toBeGreaterThan(0);
+	});
+
+	it("keeps each welder's last use of a process equal to their latest seeded weld in it", () => {
+		const passes = db
+			.select({
+				welderId: schema.weldWelders.welderId,
+				pass: schema.weldWelders.pass,
+				process: schema.welds.process,
+				weldedOn: schema.welds.weldedOn
+			})
+			.from(schema.weldWelders)
+			.innerJoin(schema.welds, eq(schema.welds.id, schema.weldWelders.weldId))
+			.all();
+		const latest = new Map<string, string>();
+		for (const row of passes) {
+			const process = passProcesses(row.process)![row.pass];
+			const key = `${row.welderId} ${process}`;
+			if ((latest.get(key) ?? '') < row.weldedOn) latest.set(key, row.weldedOn);
+		}
+		expect(latest.size).toBeGreaterThanOrEqual(8);
+		const qualifications = db.select().from(schema.welderQualifications).all();
+		let checked = 0;
+		for (const q of qualifications) {
+			const seeded = latest.get(`${q.welderId} ${q.process}`);
+			if (!seeded) continue;
+			expect(q.lastUsedOn, `welder ${q.welderId} ${q.process}`).toBe(seeded);
+			checked++;
+		}
+		// Every seeded pass is by a welder qualified for its process.
+		expect(checked).toBe(latest.size);
+		// The scenario's one lapsing qualification (B31, SMAW, last used in June) stays unused, so
+		// the register still shows it running out; ASME IX QW-322.1(a), six months without the process.
+		const b31 = db.select().from(schema.welders).where(eq(schema.welders.stamp, 'B31')).get()!;
+		const smaw = qualifications.find((q) => q.welderId === b31.id && q.process === 'SMAW')!;
+		expect(smaw.lastUsedOn).toBe('2026-06-12');
 	});
 });

@@ -72,6 +72,19 @@ export const voidJointSchema = z.object({
 	version: z.number().int().min(1)
 });
 
+/** A cut-out: the joint is voided with the reason and a joint with the N-suffixed number replaces it. */
+export const cutOutSchema = z.object({
+	reason: z
+		.string({ error: 'Say why the joint is cut out.' })
+		.trim()
+		.min(3, {
+			error: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").'
+		})
+		.max(300, { error: 'Keep the reason under 300 characters.' }),
+	version: z.number({ error: 'Send the joint version you last saw.' }).int().min(1)
+});
+export type CutOut = z.infer<typeof cutOutSchema>;
+
 export const reviewPinSchema = z.object({
 	version: z.number().int().min(1)
 });

@@ -22,6 +22,7 @@ import {
 import {
 	deriveJointState,
 	displayWeldNumber,
+	effectiveInspections,
 	STATE_LOOKS,
 	type DerivedState,
 	type StateInput
@@ -147,12 +148,6 @@ function stageName(stage: Row['stage'], method?: string | null): string {
 	return stage === 'nde' && method ? method : STAGE_NAMES[stage];
 }
 
-/** The rows still in force: a correction takes the place of the row it names. */
-function effective(rows: readonly Row[]): Row[] {
-	const superseded = new Set(rows.map((r) => r.supersedesId).filter((id) => id != null));
-	return rows.filter((r) => !superseded.has(r.id));
-}
-
 function dateOf(ms: number): string {
 	return new Date(ms).toISOString().slice(0, 10);
 }
@@ -195,7 +190,7 @@ function checkStageOrder(
 			'stage'
 		);
 	}
-	const rows = effective(state.inspections).filter(
+	const rows = effectiveInspections(state.inspections).filter(
 		(r) => r.repairCycle === cycle && r.id !== correcting?.id
 	);
 	const previous = (match: (r: Row) => boolean) => rows.filter(match).at(-1);
@@ -380,8 +375,15 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			input.supersedes !== undefined ? supersededRow(tx, joint, input, derived) : undefined;
 		checkStageOrder(tx, joint, input, state, derived, correcting);
 
-		const verdict = judged(tx, joint, input);
 		const reason = input.reason?.trim() || null;
+		if (correcting && (reason === null || reason.length < 3)) {
+			throw new JointError(
+				`Say why inspection #${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
+				400,
+				'reason'
+			);
+		}
+		const verdict = judged(tx, joint, input);
 		const againstVerdict =
 			(input.decision === 'accept' && verdict.verdict === 'outside') ||
 			(input.decision === 'reject' && verdict.verdict === 'within');

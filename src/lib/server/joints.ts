@@ -15,7 +15,12 @@ import {
 	type DerivedState,
 	type NdeMethod
 } from '$lib/joint-state';
-import { insertedWeldNumber, nextWeldNumber, weldNumberSortKey } from '$lib/weld-numbers';
+import {
+	cutOutWeldNumber,
+	insertedWeldNumber,
+	nextWeldNumber,
+	weldNumberSortKey
+} from '$lib/weld-numbers';
 import { jointLengths, type JointFields } from '$lib/schemas/joint';
 import type { UnitSystem } from './db/schema';
 
@@ -257,10 +262,22 @@ export function detail(jointId: number) {
 		)
 		.orderBy(asc(schema.auditEvents.at), asc(schema.auditEvents.id))
 		.all();
+	const replaces = joint.replacesJointId
+		? (db
+				.select({ id: j.id, number: j.number })
+				.from(j)
+				.where(eq(j.id, joint.replacesJointId))
+				.get() ?? null)
+		: null;
+	const replacedBy =
+		db.select({ id: j.id, number: j.number }).from(j).where(eq(j.replacesJointId, jointId)).get() ??
+		null;
 	return {
 		...joint,
 		label: displayWeldNumber(joint.number, joint.repairCycle),
 		stateLabel: look.label,
+		replaces,
+		replacedBy,
 		next: look.next,
 		owner: look.owner,
 		pins,
@@ -646,5 +663,172 @@ export function confirmPin(pinId: number, version: number, userId: string) {
 			by: userId
 		});
 		return { version: updated.version };
+	});
+}
+
+/** What a cut-out copies from the joint it replaces: everything but its records. */
+const CARRIED = [
+	'kind',
+	'location',
+	'line',
+	'spool',
+	'sizeText',
+	'diameterMm',
+	'thicknessText',
+	'thicknessMm',
+	'requiredSizeText',
+	'requiredSizeMm',
+	'material',
+	'wps',
+	'criteriaSetId',
+	'ndeRequired'
+] as const;
+
+/**
+ * Cut out a welded joint: it is voided with the reason, and a new joint with the N-suffixed
+ * number (`12` → `12N`) takes its place, on the same drawing, pinned at the same point of the
+ * current revision, with the same kind, sizes, material, WPS, criteria set and NDE
+ * requirement. One transaction, audited on both joints; the new one starts awaiting fit-up.
+ */
+export function cutOut(jointId: number, reason: string, version: number, userId: string) {
+	return db.transaction((tx) => {
+		const joint = lockedJoint(tx, jointId, version);
+		const label = displayWeldNumber(joint.number, joint.repairCycle);
+		const replaced = tx
+			.select({ number: j.number })
+			.from(j)
+			.where(eq(j.replacesJointId, jointId))
+			.get();
+		if (replaced)
+			throw new JointError(
+				`Joint ${joint.number} has already been cut out and replaced by ${replaced.number}.`,
+				409
+			);
+		if (joint.voidedAt)
+			throw new JointError(
+				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); a void joint is not cut out.`,
+				409
+			);
+		const welded = tx
+			.select({ id: schema.welds.id })
+			.from(schema.welds)
+			.where(eq(schema.welds.jointId, jointId))
+			.get();
+		if (!welded)
+			throw new JointError(
+				`Joint ${label} has not been welded, so there is nothing to cut out. Record a new fit-up, or void the joint if it no longer exists.`,
+				409
+			);
+		const pin = tx
+			.select({ pageIndex: p.pageIndex, x: p.x, y: p.y, revisionId: p.revisionId })
+			.from(p)
+			.innerJoin(schema.revisions, eq(schema.revisions.id, p.revisionId))
+			.where(and(eq(p.jointId, jointId), eq(schema.revisions.status, 'current')))
+			.get();
+		if (!pin)
+			throw new JointError(
+				`Joint ${joint.number} has no pin on the drawing's current revision; place or review it there first, so the new joint can be pinned at the same point.`,
+				409
+			);
+
+		const number = cutOutWeldNumber(joint.number, numbersOf(joint.drawingId, tx));
+		const now = Date.now();
+		const voidReason = `Cut out: ${reason}; replaced by ${number}`;
+		tx.update(j)
+			.set({
+				voidReason,
+				voidedAt: now,
+				voidedBy: userId,
+				version: joint.version + 1,
+				updatedAt: now
+			})
+			.where(eq(j.id, jointId))
+			.run();
+		tx.update(p).set({ needsReview: false }).where(eq(p.jointId, jointId)).run();
+		refreshState(jointId, tx, now);
+		const carried = Object.fromEntries(CARRIED.map((key) => [key, joint[key]])) as Pick<
+			typeof joint,
+			(typeof CARRIED)[number]
+		>;
+		const replacement = tx
+			.insert(j)
+			.values({
+				...carried,
+				projectId: joint.projectId,
+				drawingId: joint.drawingId,
+				number,
+				sortKey: weldNumberSortKey(number),
+				replacesJointId: jointId,
+				createdBy: userId,
+				createdAt: now,
+				updatedAt: now,
+				stateSince: now
+			})
+			.returning()
+			.get();
+		const newPin = tx
+			.insert(p)
+			.values({
+				jointId: replacement.id,
+				revisionId: pin.revisionId,
+				pageIndex: pin.pageIndex,
+				x: pin.x,
+				y: pin.y,
+				createdBy: userId,
+				createdAt: now,
+				updatedAt: now
+			})
+			.returning()
+			.get();
+		refreshState(replacement.id, tx, now);
+		audit.record(
+			{
+				action: 'cut_out',
+				entity: 'joint',
+				entityId: jointId,
+				projectId: joint.projectId,
+				userId,
+				at: now,
+				before: { state: joint.state, repairCycle: joint.repairCycle },
+				after: { reason, replacedBy: { id: replacement.id, number } }
+			},
+			tx
+		);
+		audit.record(
+			{
+				action: 'create',
+				entity: 'joint',
+				entityId: replacement.id,
+				projectId: joint.projectId,
+				userId,
+				at: now,
+				after: {
+					number,
+					kind: replacement.kind,
+					replaces: { id: jointId, number: joint.number },
+					revisionId: newPin.revisionId,
+					pageIndex: newPin.pageIndex,
+					x: newPin.x,
+					y: newPin.y
+				}
+			},
+			tx
+		);
+		events.publish(joint.projectId, {
+			type: 'joint',
+			action: 'voided',
+			jointId,
+			drawingId: joint.drawingId,
+			by: userId
+		});
+		events.publish(joint.projectId, {
+			type: 'pin',
+			action: 'created',
+			revisionId: newPin.revisionId,
+			jointId: replacement.id,
+			pinId: newPin.id,
+			by: userId
+		});
+		return { voided: row(jointId, tx)!, joint: row(replacement.id, tx)!, pin: newPin };
 	});
 }

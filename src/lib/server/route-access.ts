@@ -99,6 +99,7 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
 	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
+	'/api/joints/[jointId=id]/cut-out': { POST: project('joint.cutout') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },
 	'/api/joints/[jointId=id]/inspections': {
 		GET: project('project.read'),

@@ -29,6 +29,9 @@ export interface JointDetail {
 	owner: 'foreman' | 'inspector' | null;
 	repairCycle: number;
 	version: number;
+	/** The joint this one replaced after a cut-out, and the one that replaced this. */
+	replaces: { id: number; number: string } | null;
+	replacedBy: { id: number; number: string } | null;
 	pins: {
 		pinId: number;
 		revisionId: number;
@@ -61,6 +64,7 @@ export interface JointDetail {
 		reportNo: string | null;
 		inspectedAt: number;
 		supersedesId: number | null;
+		technician: string | null;
 		inspector: string | null;
 		readings: { id: string; text: string; value: number | boolean | null; unit: string | null }[];
 	}[];
@@ -73,3 +77,5 @@ export interface JointDetail {
 		by: string | null;
 	}[];
 }
+
+export type InspectionRecord = JointDetail['inspections'][number];

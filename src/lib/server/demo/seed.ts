@@ -5,7 +5,7 @@
  * run gives the same rows (tests rely on it). With `TACKSHEET_DEMO=0` it creates only the
  * administrator named by ADMIN_EMAIL / ADMIN_PASSWORD.
  */
-import { count, eq } from 'drizzle-orm';
+import { and, count, eq, sql } from 'drizzle-orm';
 import { db as defaultDb, schema, type Db } from '../db';
 import { config } from '../config';
 import { hashPassword } from '../passwords';
@@ -22,6 +22,7 @@ import {
 } from './scenario';
 import { fitupReadings, visualReadings, type DemoOutcome } from './readings';
 import { judgeReadings } from '../inspections';
+import { passProcesses } from '../welds';
 import { weldNumberSortKey } from '$lib/weld-numbers';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength } from '$lib/units';
@@ -208,6 +209,7 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 					});
 					drawingCount++;
 				}
+				recordLastUse(tx, projectId);
 			});
 			audit.record({ action: 'seed', entity: 'database', after: { demo: true } }, tx);
 			return {
@@ -238,10 +240,52 @@ function seedWelders(tx: Tx, projectId: number, project: DemoProject): Map<strin
 			tx.insert(schema.welderQualifications)
 				.values({ welderId: id, ...q })
 				.run();
+			// Only a process the welder kept using during the job is given them in the seeded
+			// welds; one the scenario lets lapse (last used before the job) stays unused.
+			if (Date.parse(`${q.lastUsedOn}T00:00:00Z`) < JOB_START) continue;
 			byProcess.set(q.process, [...(byProcess.get(q.process) ?? []), id]);
 		}
 	}
 	return byProcess;
+}
+
+/**
+ * Continuity follows the records: each welder's last use of a process is the date of their
+ * latest seeded weld in it, read per pass as the weld record names the processes (root, then
+ * fill and cap), as recording a weld through the app would have left it.
+ */
+function recordLastUse(tx: Tx, projectId: number) {
+	const passes = tx
+		.select({
+			welderId: schema.weldWelders.welderId,
+			pass: schema.weldWelders.pass,
+			process: schema.welds.process,
+			weldedOn: schema.welds.weldedOn
+		})
+		.from(schema.weldWelders)
+		.innerJoin(schema.welds, eq(schema.welds.id, schema.weldWelders.weldId))
+		.innerJoin(schema.joints, eq(schema.joints.id, schema.welds.jointId))
+		.where(eq(schema.joints.projectId, projectId))
+		.all();
+	const latest = new Map<string, { welderId: number; process: string; on: string }>();
+	for (const row of passes) {
+		const process = passProcesses(row.process)?.[row.pass];
+		if (!process) continue;
+		const key = `${row.welderId} ${process}`;
+		const seen = latest.get(key);
+		if (!seen || row.weldedOn > seen.on) latest.set(key, { ...row, process, on: row.weldedOn });
+	}
+	for (const { welderId, process, on } of latest.values()) {
+		tx.update(schema.welderQualifications)
+			.set({ lastUsedOn: on })
+			.where(
+				and(
+					eq(schema.welderQualifications.welderId, welderId),
+					sql`upper(${schema.welderQualifications.process}) = ${process.toUpperCase()}`
+				)
+			)
+			.run();
+	}
 }
 
 interface DrawingSeed {
