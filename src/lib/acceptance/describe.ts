@@ -142,6 +142,9 @@ function allowanceWords(allowance: LengthAllowance, units: UnitSystem): string {
 /** A rule in words: "at most 1/32 in", "none; past that the inspector judges". */
 export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): string {
 	const words: Words = { unit: unit === 'deg' ? 'deg' : 'mm', units };
+	// A stepped or conditional value reads as one thing inside the sentence around it.
+	const value = (expr: Expr) =>
+		exprWords(expr, words, typeof expr === 'object' && ('by' in expr || 'when' in expr));
 	const judged = rule.type !== 'range' && 'beyond' in rule && rule.beyond === 'judge';
 	const beyond = judged ? '; past that the inspector judges' : '';
 	switch (rule.type) {
@@ -152,14 +155,14 @@ export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): strin
 				rule.judgeUpTo === undefined
 					? ''
 					: `; up to ${exprWords(rule.judgeUpTo, words)} the inspector judges`;
-			return `at most ${exprWords(rule.max, words)}${judgeUpTo}${beyond}`;
+			return `at most ${value(rule.max)}${judgeUpTo}${beyond}`;
 		}
 		case 'min': {
 			const judgeAbove =
 				rule.judgeAbove === undefined
 					? ''
 					: `; less, but more than ${exprWords(rule.judgeAbove, words)}, the inspector judges`;
-			return `at least ${exprWords(rule.min, words)}${judgeAbove}`;
+			return `at least ${value(rule.min)}${judgeAbove}`;
 		}
 		case 'range': {
 			const [min, max] = [exprWords(rule.min, words), exprWords(rule.max, words)];
@@ -171,7 +174,7 @@ export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): strin
 			const band = rule.band
 				? `; deeper, up to ${exprWords(rule.band.upTo, words)}, over at most ${allowanceWords(rule.band.length, units)}`
 				: '';
-			return `at most ${exprWords(rule.max, words)} at any length${band}`;
+			return `at most ${value(rule.max)} at any length${band}`;
 		}
 	}
 }
