@@ -58,7 +58,13 @@ function newJoint(fields: Partial<JointFields> = {}) {
 			pageIndex: 0,
 			x: 60 + placed * 3,
 			y: 420,
-			joint: { kind: 'butt', size: '6', thickness: '0.280 in', wps: 'WPS-CS-01 GTAW/SMAW', ...fields }
+			joint: {
+				kind: 'butt',
+				size: '6',
+				thickness: '0.280 in',
+				wps: 'WPS-CS-01 GTAW/SMAW',
+				...fields
+			}
 		},
 		inspectorId
 	).joint;

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { getCriteriaSet, type CriteriaSet } from './index';
-import { lengthWords, limitUnit, ruleWords, typedValue } from './describe';
+import { exprWords, lengthWords, limitUnit, ruleWords, typedValue } from './describe';
 
 const set = (id: string) => getCriteriaSet(id) as CriteriaSet;
 
@@ -48,6 +48,25 @@ describe('ruleWords', () => {
 			'no fixed number: Bevel angle as the WPS specifies.'
 		);
 		expect(ruleWords({ type: 'range', min: 30, max: 40 }, 'deg', 'metric')).toBe('30° to 40°');
+		// B31.3 328.4.3 gives no number for hi-lo.
+		expect(
+			ruleWords(set('asme-b31.3-normal').limits['misalignment.max']!.rule, 'mm', 'imperial')
+		).toMatch(/^no fixed number: B31\.3 gives no number/);
+	});
+});
+
+describe('exprWords', () => {
+	// ISO 5817:2014 Table 1, 5011 (undercut), level C: h ≤ 0.1 t, at most 0.5 mm (t > 3 mm).
+	it('leaves out a zero addend', () => {
+		expect(
+			exprWords(
+				{ lesserOf: [{ of: 'thickness', times: 0.1, plus: 0 }, 0.5] },
+				{
+					unit: 'mm',
+					units: 'metric'
+				}
+			)
+		).toBe('the lesser of 0.1 × thickness and 0.5 mm');
 	});
 });
 

@@ -100,7 +100,7 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 	if (typeof expr === 'number' || 'mm' in expr) return quantityWords(expr, words);
 	if ('of' in expr) {
 		const base = `${trim(expr.times, 4)} × ${BASIS_WORDS[expr.of]}`;
-		return expr.plus === undefined
+		return expr.plus === undefined || quantity(expr.plus, words.units) === 0
 			? base
 			: wrap(`${base} + ${quantityWords(expr.plus, { ...words, unit: 'mm' })}`);
 	}
@@ -145,6 +145,7 @@ export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): strin
 	// A stepped or conditional value reads as one thing inside the sentence around it.
 	const value = (expr: Expr) =>
 		exprWords(expr, words, typeof expr === 'object' && ('by' in expr || 'when' in expr));
+	const open = (expr: Expr) => typeof expr === 'object' && 'open' in expr;
 	const judged = rule.type !== 'range' && 'beyond' in rule && rule.beyond === 'judge';
 	const beyond = judged ? '; past that the inspector judges' : '';
 	switch (rule.type) {
@@ -155,14 +156,14 @@ export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): strin
 				rule.judgeUpTo === undefined
 					? ''
 					: `; up to ${exprWords(rule.judgeUpTo, words)} the inspector judges`;
-			return `at most ${value(rule.max)}${judgeUpTo}${beyond}`;
+			return `${open(rule.max) ? '' : 'at most '}${value(rule.max)}${judgeUpTo}${beyond}`;
 		}
 		case 'min': {
 			const judgeAbove =
 				rule.judgeAbove === undefined
 					? ''
 					: `; less, but more than ${exprWords(rule.judgeAbove, words)}, the inspector judges`;
-			return `at least ${value(rule.min)}${judgeAbove}`;
+			return `${open(rule.min) ? '' : 'at least '}${value(rule.min)}${judgeAbove}`;
 		}
 		case 'range': {
 			const [min, max] = [exprWords(rule.min, words), exprWords(rule.max, words)];
