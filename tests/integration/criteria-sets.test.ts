@@ -230,6 +230,9 @@ describe('a project set judges the joints that use it, and keeps each version', 
 	it('judges a visual by the project limit and stores the set and its version 1', () => {
 		const joint = weldedJoint('ps-101-piping');
 		// 1/32 in is within B31.3 criterion H but deeper than the project's 1/64 in.
+		expect(() => visual(joint.id, '1/32', 'accept')).toThrow(
+			/outside the limits of PS-101 process piping \(version 1, from ASME B31\.3 2018\)/
+		);
 		const inspection = visual(joint.id, '1/32', 'reject');
 		first = inspection.id;
 		expect(inspection).toMatchObject({

@@ -86,6 +86,12 @@ function unknownCriteriaSet(criteriaSetId: string): JointError {
 	);
 }
 
+/** The limits a verdict was judged by: the code and edition, or the project's own set of them. */
+function criteriaWords(set: CriteriaSet): string {
+	const code = `${set.standard} ${set.edition}`;
+	return set.basedOn ? `${set.name} (version ${set.version}, from ${code})` : code;
+}
+
 /**
  * The engine's verdict on a set of readings, in the shape an inspection row stores: by a set,
  * or a built-in set named by its id. An unreadable reading is a JointError 400 naming the
@@ -394,7 +400,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			(input.decision === 'accept' && verdict.verdict === 'outside') ||
 			(input.decision === 'reject' && verdict.verdict === 'within');
 		if (againstVerdict && (reason === null || reason.length < 3)) {
-			const standard = verdict.set ? `${verdict.set.standard} ${verdict.set.edition}` : 'the code';
+			const standard = verdict.set ? criteriaWords(verdict.set) : 'the code';
 			throw new JointError(
 				verdict.verdict === 'outside'
 					? `The readings are outside the limits of ${standard}. To accept anyway, write the reason; the record is flagged as a decision against the verdict.`
