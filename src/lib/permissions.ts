@@ -37,7 +37,9 @@ export const PROJECT_ACTIONS = [
 	'weld.record',
 	'inspection.request',
 	'welder.manage',
-	'project.settings'
+	'project.settings',
+	/** derive and revise the project's own criteria sets: no role has it, so administrators only */
+	'criteria.manage'
 ] as const;
 export type ProjectAction = (typeof PROJECT_ACTIONS)[number];
 

@@ -39,6 +39,15 @@ export function deriveCriteriaSet(base: CriteriaSet, changes: CriteriaSetChanges
 }
 
 export { CriteriaSetError, type CriteriaSetChanges, type LimitOverride } from './derive';
+export {
+	exprWords,
+	hasLengthPart,
+	lengthWords,
+	limitUnit,
+	ruleWords,
+	typedValue,
+	type LimitUnit
+} from './describe';
 export { evaluate } from './evaluate';
 export * from './geometry';
 export * from './readings';

@@ -59,6 +59,12 @@ export const evaluateRequestSchema = z.object({
 		.string({ error: 'Name the criteria set, such as "aws-d1.1-static".' })
 		.trim()
 		.min(1, { error: 'Name the criteria set, such as "aws-d1.1-static".' }),
+	/** judge by a set of this project (its own or built-in); the caller must be a member */
+	projectId: z
+		.number({ error: 'projectId is the number of a project you are a member of.' })
+		.int({ error: 'projectId is the number of a project you are a member of.' })
+		.positive({ error: 'projectId is the number of a project you are a member of.' })
+		.optional(),
 	stage: choice(stages, 'The stage'),
 	units: choice(unitSystems, 'The units').default('imperial'),
 	joint: jointSchema,

@@ -3,7 +3,6 @@
  * the tests. Lengths arrive as typed (`3/8`, `9.5 mm`) and are read by the units module.
  */
 import { z } from 'zod';
-import { builtInCriteriaSetIds } from '$lib/acceptance';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength, type UnitSystem } from '$lib/units';
 
@@ -32,9 +31,12 @@ export const jointFields = z.object({
 	requiredSize: text(40),
 	material: text(120),
 	wps: text(60),
-	criteriaSetId: z.enum(builtInCriteriaSetIds as [string, ...string[]], {
-		error: 'Choose one of the criteria sets.'
-	}),
+	/** A built-in set or one of the project's own; the server checks it belongs to the project. */
+	criteriaSetId: z
+		.string({ error: 'Choose one of the criteria sets.' })
+		.trim()
+		.min(1, { error: 'Choose one of the criteria sets.' })
+		.max(80),
 	ndeRequired: text(40)
 });
 export type JointFields = z.infer<typeof jointFields>;

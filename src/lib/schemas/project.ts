@@ -1,6 +1,5 @@
 /** A project's settings, as the administrator edits them. */
 import { z } from 'zod';
-import { builtInCriteriaSetIds } from '$lib/acceptance';
 
 const percent = z.coerce
 	.number()
@@ -12,9 +11,11 @@ export const projectSettingsSchema = z.object({
 	client: z.string().trim().max(160).default(''),
 	contractor: z.string().trim().max(160).default(''),
 	site: z.string().trim().max(160).default(''),
-	defaultCriteriaSet: z.enum(builtInCriteriaSetIds as [string, ...string[]], {
-		error: 'Choose a criteria set.'
-	}),
+	/** A built-in set or one of the project's own; the action checks it belongs to the project. */
+	defaultCriteriaSet: z
+		.string({ error: 'Choose a criteria set.' })
+		.trim()
+		.min(1, { error: 'Choose a criteria set.' }),
 	shopPrefix: z
 		.string()
 		.trim()

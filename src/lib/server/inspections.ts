@@ -7,6 +7,7 @@
 import { and, desc, eq } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
+import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
 import { JointError, refreshState, row, stateInput } from './joints';
@@ -15,6 +16,7 @@ import {
 	getCriteriaSet,
 	isReadingId,
 	readingDefinitions,
+	type CriteriaSet,
 	type JointInput,
 	type ReadingsInput,
 	type Stage
@@ -77,25 +79,34 @@ export function storedReadings(texts: ReadingTexts, units: UnitSystem): StoredRe
 	return stored;
 }
 
+function unknownCriteriaSet(criteriaSetId: string): JointError {
+	return new JointError(
+		`The joint's criteria set "${criteriaSetId}" is neither a built-in set nor one of the project's own; choose a criteria set on the joint card first.`,
+		409,
+		'criteriaSetId'
+	);
+}
+
+/** The limits a verdict was judged by: the code and edition, or the project's own set of them. */
+function criteriaWords(set: CriteriaSet): string {
+	const code = `${set.standard} ${set.edition}`;
+	return set.basedOn ? `${set.name} (version ${set.version}, from ${code})` : code;
+}
+
 /**
- * The engine's verdict on a set of readings, in the shape an inspection row stores.
- * An unreadable reading is a JointError 400 naming the field (`readings.undercutDepth`).
+ * The engine's verdict on a set of readings, in the shape an inspection row stores: by a set,
+ * or a built-in set named by its id. An unreadable reading is a JointError 400 naming the
+ * field (`readings.undercutDepth`).
  */
 export function judgeReadings(
-	criteriaSetId: string,
+	criteria: string | CriteriaSet,
 	joint: JointInput,
 	stage: Stage,
 	texts: ReadingTexts,
 	units: UnitSystem
 ) {
-	const set = getCriteriaSet(criteriaSetId);
-	if (!set) {
-		throw new JointError(
-			`The joint's criteria set "${criteriaSetId}" is not one this server knows; choose a criteria set on the joint card first.`,
-			409,
-			'criteriaSetId'
-		);
-	}
+	const set = typeof criteria === 'string' ? getCriteriaSet(criteria) : criteria;
+	if (!set) throw unknownCriteriaSet(criteria as string);
 	const result = evaluate(set, joint, stage, texts, { units });
 	if (!result.ok) {
 		const [first] = result.errors;
@@ -317,8 +328,11 @@ function judged(tx: Tx, joint: Joint, input: RecordInspection) {
 			set: undefined
 		};
 	}
+	// A project set at its latest version; the row keeps that version beside the set's id.
+	const set = criteriaSets.resolve(joint.projectId, joint.criteriaSetId, undefined, tx);
+	if (!set) throw unknownCriteriaSet(joint.criteriaSetId);
 	const result = judgeReadings(
-		joint.criteriaSetId,
+		set,
 		jointInput(joint),
 		input.stage,
 		input.readings,
@@ -330,7 +344,7 @@ function judged(tx: Tx, joint: Joint, input: RecordInspection) {
 		findings: result.findings,
 		criteriaSetId: joint.criteriaSetId,
 		criteriaSetVersion: result.version,
-		set: getCriteriaSet(joint.criteriaSetId)
+		set
 	};
 }
 
@@ -388,7 +402,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			(input.decision === 'accept' && verdict.verdict === 'outside') ||
 			(input.decision === 'reject' && verdict.verdict === 'within');
 		if (againstVerdict && (reason === null || reason.length < 3)) {
-			const standard = verdict.set ? `${verdict.set.standard} ${verdict.set.edition}` : 'the code';
+			const standard = verdict.set ? criteriaWords(verdict.set) : 'the code';
 			throw new JointError(
 				verdict.verdict === 'outside'
 					? `The readings are outside the limits of ${standard}. To accept anyway, write the reason; the record is flagged as a decision against the verdict.`

@@ -6,6 +6,7 @@
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
+import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import {
 	deriveJointState,
@@ -274,6 +275,10 @@ export function detail(jointId: number) {
 		null;
 	return {
 		...joint,
+		// A project's own set travels with the joint, so the card's live verdict judges by it.
+		criteriaSet: criteriaSets.isBuiltIn(joint.criteriaSetId)
+			? null
+			: (criteriaSets.get(joint.projectId, joint.criteriaSetId) ?? null),
 		label: displayWeldNumber(joint.number, joint.repairCycle),
 		stateLabel: look.label,
 		replaces,
@@ -298,6 +303,13 @@ function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 	const result = jointLengths(fields, units);
 	if (!result.ok) throw new JointError(result.message, 400, result.field);
 	return result.values;
+}
+
+/** A criteria set chosen for a joint is a built-in one or one of the project's own. */
+function checkCriteriaSet(projectId: number, id: string, field: string, tx: Reader) {
+	if (criteriaSets.resolve(projectId, id, undefined, tx)) return;
+	const problem = criteriaSets.unknownSet(projectId, id, field, tx);
+	throw new JointError(problem.message, 400, field);
 }
 
 function numbersOf(drawingId: number, tx: Reader): string[] {
@@ -345,6 +357,9 @@ export function place(input: PlacePin, userId: string) {
 		throw new JointError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
 	const location = input.joint.location ?? 'shop';
 	const lengths = lengthsOrThrow(input.joint, revision.units);
+	if (input.joint.criteriaSetId !== undefined) {
+		checkCriteriaSet(revision.projectId, input.joint.criteriaSetId, 'joint.criteriaSetId', db);
+	}
 	return db.transaction((tx) => {
 		const used = numbersOf(revision.drawingId, tx);
 		const line = input.joint.line ?? revision.line;
@@ -475,6 +490,9 @@ export function update(
 			{ size, thickness, requiredSize },
 			projectUnits(joint.projectId, tx)
 		);
+		if (plain.criteriaSetId !== undefined && plain.criteriaSetId !== joint.criteriaSetId) {
+			checkCriteriaSet(joint.projectId, plain.criteriaSetId, 'criteriaSetId', tx);
+		}
 		if (number && number !== joint.number) {
 			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
 				throw new JointError(

@@ -45,6 +45,7 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.settings'),
 		actions: { default: project('project.settings') }
 	},
+	'/(app)/projects/[projectId=id]/settings/criteria': { GET: project('criteria.manage') },
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
 		GET: project('project.read')
@@ -145,6 +146,11 @@ export const ROUTES: Record<string, RouteRules> = {
 		DELETE: project('project.export')
 	},
 	'/api/exports/[exportId=id]/file': { GET: project('project.export') },
+	'/api/projects/[projectId=id]/criteria-sets': {
+		GET: project('project.read'),
+		POST: project('criteria.manage')
+	},
+	'/api/projects/[projectId=id]/criteria-sets/[setId]': { GET: project('project.read') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }

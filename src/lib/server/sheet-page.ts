@@ -1,5 +1,6 @@
 /** What the sheet viewer and the compare view load about a drawing and its revisions. */
 import { error } from '@sveltejs/kit';
+import * as criteriaSets from './criteria-sets';
 import * as drawings from './drawings';
 
 export function drawingOrThrow(projectId: number, drawingId: number) {
@@ -31,6 +32,8 @@ export function sheetData(projectId: number, drawingId: number, revisionId?: num
 			issuedOn,
 			uploadedAt
 		})),
-		current: { id: current.id, label: current.label }
+		current: { id: current.id, label: current.label },
+		/** what the joint card's criteria set picker offers */
+		criteriaChoices: criteriaSets.choices(projectId)
 	};
 }

@@ -1,4 +1,5 @@
 /** The joint as GET /api/joints/{id} returns it, for the joint card. */
+import type { CriteriaSet } from '$lib/acceptance';
 import type { JointState } from '$lib/joint-state';
 
 export interface JointDetail {
@@ -20,6 +21,8 @@ export interface JointDetail {
 	material: string;
 	wps: string;
 	criteriaSetId: string;
+	/** the project's own set the joint is judged by; null for a built-in set */
+	criteriaSet: CriteriaSet | null;
 	ndeRequired: string;
 	voidReason: string | null;
 	voidedAt: number | null;

@@ -18,7 +18,8 @@ import {
 import type { AdapterAccountType } from '@auth/core/adapters';
 import type { JointState, NdeMethod, InspectionStage, Decision } from '../../joint-state';
 import type { ProjectRole } from '../../permissions';
-import type { Finding } from '../../acceptance/types';
+import type { CheckId, Finding } from '../../acceptance/types';
+import type { LimitOverride } from '../../acceptance/derive';
 
 export type { ProjectRole };
 export const UNIT_SYSTEMS = ['imperial', 'metric'] as const;
@@ -176,7 +177,14 @@ export const memberships = sqliteTable(
 	(t) => [primaryKey({ columns: [t.projectId, t.userId] }), index('memberships_user').on(t.userId)]
 );
 
-/** A project's own criteria, derived from a built-in set; built-in sets live in code. */
+/**
+ * A project's own criteria, derived from a built-in set (or another project set); built-in
+ * sets live in code. One row per version, never changed once written, so a result keeps the
+ * limits it was judged by: `id` is the row's key `{projectId}/{setId}@{version}` (see
+ * `src/lib/server/criteria-sets.ts`); `base_id` is a built-in id, or `{setId}@{version}` of
+ * the project set it was derived from; `overrides` are all the limits this version changes
+ * from its base, in mm and degrees.
+ */
 export const criteriaSets = sqliteTable(
 	'criteria_sets',
 	{
@@ -187,7 +195,9 @@ export const criteriaSets = sqliteTable(
 		baseId: text('base_id').notNull(),
 		name: text('name').notNull(),
 		version: integer('version').notNull().default(1),
-		overrides: text('overrides', { mode: 'json' }).$type<Record<string, number>>().notNull(),
+		overrides: text('overrides', { mode: 'json' })
+			.$type<Partial<Record<CheckId, LimitOverride>>>()
+			.notNull(),
 		createdBy: text('created_by').references(() => users.id),
 		createdAt: createdAt()
 	},
@@ -582,6 +592,7 @@ export const mailMessages = sqliteTable(
 
 export type User = typeof users.$inferSelect;
 export type Project = typeof projects.$inferSelect;
+export type CriteriaSetRow = typeof criteriaSets.$inferSelect;
 export type Membership = typeof memberships.$inferSelect;
 export type Drawing = typeof drawings.$inferSelect;
 export type Revision = typeof revisions.$inferSelect;

@@ -1,6 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { acceptanceNotice, builtInCriteriaSetIds, evaluate, getCriteriaSet } from '$lib/acceptance';
+import { isMember } from '$lib/permissions';
 import { apiError, invalid } from '$lib/server/api';
+import * as criteriaSets from '$lib/server/criteria-sets';
 import { evaluateRequestSchema } from '$lib/schemas/acceptance';
 import type { RequestHandler } from './$types';
 
@@ -9,9 +11,10 @@ const EXAMPLE =
 
 /**
  * The verdict for one set of readings, from the same engine the joint card runs in the browser.
- * Nothing is stored: recording an inspection belongs to the inspection routes.
+ * Nothing is stored: recording an inspection belongs to the inspection routes. With `projectId`
+ * the criteria may also be one of that project's own sets (latest version).
  */
-export const POST: RequestHandler = async ({ request }) => {
+export const POST: RequestHandler = async ({ request, locals }) => {
 	const body: unknown = await request.json().catch(() => undefined);
 	if (body === undefined) return apiError(400, `The body is not JSON. Send ${EXAMPLE}.`, 'body');
 	if (typeof body !== 'object' || body === null || Array.isArray(body)) {
@@ -20,12 +23,20 @@ export const POST: RequestHandler = async ({ request }) => {
 	const parsed = evaluateRequestSchema.safeParse(body);
 	if (!parsed.success) return invalid(parsed);
 
-	const { criteria, stage, units, joint, readings } = parsed.data;
-	const set = getCriteriaSet(criteria);
+	const { criteria, projectId, stage, units, joint, readings } = parsed.data;
+	if (projectId !== undefined && !(locals.user && isMember(locals.user, projectId))) {
+		return apiError(404, 'There is no such project, or you are not a member of it.', 'projectId');
+	}
+	const set =
+		projectId === undefined ? getCriteriaSet(criteria) : criteriaSets.resolve(projectId, criteria);
 	if (!set) {
+		const known =
+			projectId === undefined
+				? builtInCriteriaSetIds
+				: criteriaSets.choices(projectId).map((choice) => choice.id);
 		return apiError(
 			400,
-			`Unknown criteria set "${criteria}"; use one of: ${builtInCriteriaSetIds.join(', ')}.`,
+			`Unknown criteria set "${criteria}"; use one of: ${known.join(', ')}.`,
 			'criteria'
 		);
 	}

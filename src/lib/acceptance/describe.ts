@@ -1,0 +1,181 @@
+/**
+ * Limits in words, for the people who set them: "at most the lesser of 1/32 in and
+ * 0.25 × thickness". Quantities show in the project's column of a dual-unit code. Pure.
+ */
+import { MM_PER_INCH, type UnitSystem } from '../units';
+import { checkDefinitions } from './checks';
+import { quantity } from './limits';
+import type { Basis, CheckId, Condition, Expr, LengthAllowance, Quantity, Rule } from './types';
+
+/** What a check's limit is measured in. */
+export type LimitUnit = 'mm' | 'deg' | 'flag';
+
+const FLAG_CHECKS: readonly CheckId[] = ['crack', 'fusion', 'overlap', 'crater'];
+
+export function limitUnit(check: CheckId): LimitUnit {
+	if (FLAG_CHECKS.includes(check)) return 'flag';
+	return check === 'bevelAngle.range' ? 'deg' : 'mm';
+}
+
+/** Checks whose limit may allow a deeper imperfection over a limited length (a banded rule). */
+export function hasLengthPart(check: CheckId): boolean {
+	return checkDefinitions[check].length !== undefined;
+}
+
+const trim = (value: number, places: number) => String(Number(value.toFixed(places)));
+
+/**
+ * A length as an inspector reads it: an exact 1/64 in as a fraction (`1/32 in`), else the
+ * inches and the millimetres (`0.020 in (0.5 mm)`); in a metric project, millimetres.
+ */
+export function lengthWords(mm: number, units: UnitSystem): string {
+	if (units === 'metric') return `${trim(mm, 3)} mm`;
+	const inches = mm / MM_PER_INCH;
+	const sixtyFourths = inches * 64;
+	if (Math.abs(sixtyFourths - Math.round(sixtyFourths)) < 1e-6) {
+		return `${inchFraction(Math.round(sixtyFourths))} in`;
+	}
+	return `${inches.toFixed(3)} in (${trim(mm, 2)} mm)`;
+}
+
+function inchFraction(sixtyFourths: number): string {
+	const whole = Math.floor(sixtyFourths / 64);
+	let numerator = sixtyFourths % 64;
+	let denominator = 64;
+	while (numerator > 0 && numerator % 2 === 0) {
+		numerator /= 2;
+		denominator /= 2;
+	}
+	if (numerator === 0) return String(whole);
+	return whole === 0 ? `${numerator}/${denominator}` : `${whole}-${numerator}/${denominator}`;
+}
+
+/**
+ * A value as it would be typed back into a form in the project's units: `1/32 in`, `0.5 mm`,
+ * `37.5°`. Exact, unlike the display: a value that is no whole 1/64 in stays in millimetres.
+ */
+export function typedValue(value: number, unit: Exclude<LimitUnit, 'flag'>, units: UnitSystem) {
+	if (unit === 'deg') return `${trim(value, 3)}°`;
+	const sixtyFourths = (value / MM_PER_INCH) * 64;
+	if (units === 'imperial' && Math.abs(sixtyFourths - Math.round(sixtyFourths)) < 1e-9) {
+		return `${inchFraction(Math.round(sixtyFourths))} in`;
+	}
+	return `${trim(value, 4)} mm`;
+}
+
+const BASIS_WORDS: Record<Basis, string> = {
+	thickness: 'thickness',
+	faceWidth: 'face width',
+	requiredSize: 'required fillet size',
+	nominalThroat: 'nominal throat',
+	weldLength: 'weld length'
+};
+
+function conditionWords(condition: Condition): string {
+	if ('kindIn' in condition) return `${condition.kindIn.join(' or ')} joints`;
+	if ('member' in condition) return `${condition.member} members`;
+	if ('stress' in condition) return `weld ${condition.stress} to the stress`;
+	return `${condition.loading} loading`;
+}
+
+function list(items: string[]): string {
+	return items.length <= 1
+		? (items[0] ?? '')
+		: `${items.slice(0, -1).join(', ')} and ${items[items.length - 1]}`;
+}
+
+interface Words {
+	unit: Exclude<LimitUnit, 'flag'>;
+	units: UnitSystem;
+}
+
+function quantityWords(value: Quantity, words: Words): string {
+	const number = quantity(value, words.units);
+	return words.unit === 'deg' ? `${trim(number, 2)}°` : lengthWords(number, words.units);
+}
+
+/** An expression in words; `nested` wraps the ones that read as a list in parentheses. */
+export function exprWords(expr: Expr, words: Words, nested = false): string {
+	const wrap = (text: string) => (nested ? `(${text})` : text);
+	if (typeof expr === 'number' || 'mm' in expr) return quantityWords(expr, words);
+	if ('of' in expr) {
+		const base = `${trim(expr.times, 4)} × ${BASIS_WORDS[expr.of]}`;
+		return expr.plus === undefined || quantity(expr.plus, words.units) === 0
+			? base
+			: wrap(`${base} + ${quantityWords(expr.plus, { ...words, unit: 'mm' })}`);
+	}
+	if ('by' in expr) {
+		const lengthOnly = { ...words, unit: 'mm' as const };
+		const steps = expr.steps.map((step) =>
+			'upTo' in step
+				? `up to ${quantityWords(step.upTo, lengthOnly)}: ${exprWords(step.value, words, true)}`
+				: `under ${quantityWords(step.below, lengthOnly)}: ${exprWords(step.value, words, true)}`
+		);
+		return wrap(
+			`by ${BASIS_WORDS[expr.by]}, ${[...steps, `over that: ${exprWords(expr.otherwise, words, true)}`].join('; ')}`
+		);
+	}
+	if ('when' in expr) {
+		return wrap(
+			`${exprWords(expr.then, words, true)} for ${conditionWords(expr.when)}, otherwise ${exprWords(expr.otherwise, words, true)}`
+		);
+	}
+	if ('lesserOf' in expr) {
+		return wrap(`the lesser of ${list(expr.lesserOf.map((e) => exprWords(e, words, true)))}`);
+	}
+	if ('greaterOf' in expr) {
+		return wrap(`the greater of ${list(expr.greaterOf.map((e) => exprWords(e, words, true)))}`);
+	}
+	if ('either' in expr) {
+		return wrap(
+			`${expr.either.map((e) => exprWords(e, words, true)).join(' or ')} (${expr.because})`
+		);
+	}
+	return `no fixed number: ${expr.open}`;
+}
+
+function allowanceWords(allowance: LengthAllowance, units: UnitSystem): string {
+	if ('short' in allowance) return 'a short imperfection (25 mm in any 100 mm)';
+	return `${exprWords(allowance.max, { unit: 'mm', units })} in all`;
+}
+
+/** A rule in words: "at most 1/32 in", "none; past that the inspector judges". */
+export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): string {
+	const words: Words = { unit: unit === 'deg' ? 'deg' : 'mm', units };
+	// A stepped or conditional value reads as one thing inside the sentence around it.
+	const value = (expr: Expr) =>
+		exprWords(expr, words, typeof expr === 'object' && ('by' in expr || 'when' in expr));
+	const open = (expr: Expr) => typeof expr === 'object' && 'open' in expr;
+	const judged = rule.type !== 'range' && 'beyond' in rule && rule.beyond === 'judge';
+	const beyond = judged ? '; past that the inspector judges' : '';
+	switch (rule.type) {
+		case 'absent':
+			return `none allowed${beyond}`;
+		case 'max': {
+			const judgeUpTo =
+				rule.judgeUpTo === undefined
+					? ''
+					: `; up to ${exprWords(rule.judgeUpTo, words)} the inspector judges`;
+			return `${open(rule.max) ? '' : 'at most '}${value(rule.max)}${judgeUpTo}${beyond}`;
+		}
+		case 'min': {
+			const judgeAbove =
+				rule.judgeAbove === undefined
+					? ''
+					: `; less, but more than ${exprWords(rule.judgeAbove, words)}, the inspector judges`;
+			return `${open(rule.min) ? '' : 'at least '}${value(rule.min)}${judgeAbove}`;
+		}
+		case 'range': {
+			const [min, max] = [exprWords(rule.min, words), exprWords(rule.max, words)];
+			return min === max && typeof rule.min === 'object' && 'open' in rule.min
+				? min
+				: `${min} to ${max}`;
+		}
+		case 'banded': {
+			const band = rule.band
+				? `; deeper, up to ${exprWords(rule.band.upTo, words)}, over at most ${allowanceWords(rule.band.length, units)}`
+				: '';
+			return `at most ${value(rule.max)} at any length${band}`;
+		}
+	}
+}
