@@ -61,6 +61,9 @@ export interface JointDetail {
 		method: string | null;
 		repairCycle: number;
 		verdict: 'within' | 'outside' | 'judge' | null;
+		/** the criteria set and version the server judged the readings by (none for NDE) */
+		criteriaSetId: string | null;
+		criteriaSetVersion: number | null;
 		decision: 'accept' | 'reject';
 		reason: string | null;
 		againstVerdict: boolean;
