@@ -34,9 +34,34 @@ function add(into: Counts, state: JointState, n: number) {
 	into[state] = (into[state] ?? 0) + n;
 }
 
-/** Joint counts by state, per area, per area and system, and per drawing. */
-export function counts(projectId: number, query: OutstandingQuery) {
-	const rows = db
+/**
+ * Joints per drawing and state: from the counts the triggers keep (joint_state_counts)
+ * unless a welder is asked for, which only the joints themselves can answer.
+ */
+function countRows(projectId: number, query: OutstandingQuery) {
+	if (query.welder === undefined) {
+		const c = schema.jointStateCounts;
+		return db
+			.select({
+				area: d.area,
+				system: d.system,
+				drawingId: d.id,
+				drawingNumber: d.number,
+				state: c.state,
+				n: c.n
+			})
+			.from(c)
+			.innerJoin(d, eq(d.id, c.drawingId))
+			.where(
+				and(
+					eq(c.projectId, projectId),
+					query.area !== undefined ? eq(d.area, query.area) : undefined,
+					query.drawing !== undefined ? eq(c.drawingId, query.drawing) : undefined
+				)
+			)
+			.all();
+	}
+	return db
 		.select({
 			area: d.area,
 			system: d.system,
@@ -50,6 +75,11 @@ export function counts(projectId: number, query: OutstandingQuery) {
 		.where(and(...filters(projectId, query)))
 		.groupBy(d.area, d.system, d.id, j.state)
 		.all();
+}
+
+/** Joint counts by state, per area, per area and system, and per drawing. */
+export function counts(projectId: number, query: OutstandingQuery) {
+	const rows = countRows(projectId, query);
 	const total: Counts = {};
 	const areas = new Map<string, Counts>();
 	const systems = new Map<string, { area: string; system: string; counts: Counts }>();
@@ -93,8 +123,11 @@ export function counts(projectId: number, query: OutstandingQuery) {
 	};
 }
 
-/** One state's joints, oldest in that state first, with the sheet page of the current pin. */
-function owedList(projectId: number, state: JointState, query: OutstandingQuery) {
+/**
+ * One state's joints, oldest in that state first, with the sheet page of the current pin;
+ * `offset` skips that many, for "show more".
+ */
+export function owedList(projectId: number, state: JointState, query: OutstandingQuery) {
 	const where = and(...filters(projectId, query), eq(j.state, state));
 	const items = db
 		.select({
@@ -125,6 +158,7 @@ function owedList(projectId: number, state: JointState, query: OutstandingQuery)
 		.where(where)
 		.orderBy(asc(j.stateSince), asc(j.id))
 		.limit(query.limit)
+		.offset(query.offset)
 		.all();
 	const total =
 		db.select({ n: count() }).from(j).innerJoin(d, eq(d.id, j.drawingId)).where(where).get()?.n ??
@@ -132,6 +166,7 @@ function owedList(projectId: number, state: JointState, query: OutstandingQuery)
 	return {
 		state,
 		total,
+		offset: query.offset,
 		items: items.map((item) => ({
 			...item,
 			label: displayWeldNumber(item.number, item.repairCycle),
@@ -148,7 +183,10 @@ function owedList(projectId: number, state: JointState, query: OutstandingQuery)
 export function owed(projectId: number, query: OutstandingQuery) {
 	const roles = Object.keys(OWED_STATES) as OwingRole[];
 	return Object.fromEntries(
-		roles.map((role) => [role, OWED_STATES[role].map((s) => owedList(projectId, s, query))])
+		roles.map((role) => [
+			role,
+			OWED_STATES[role].map((s) => owedList(projectId, s, { ...query, offset: 0 }))
+		])
 	) as Record<OwingRole, ReturnType<typeof owedList>[]>;
 }
 
