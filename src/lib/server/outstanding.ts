@@ -107,9 +107,15 @@ export function counts(projectId: number, query: OutstandingQuery) {
 	}
 	const owed = (c: Counts) =>
 		[...OWED_STATES.foreman, ...OWED_STATES.inspector].reduce((n, s) => n + (c[s] ?? 0), 0);
-	const byDrawing = [...drawings.values()].sort(
-		(a, b) => owed(b.counts) - owed(a.counts) || a.number.localeCompare(b.number)
-	);
+	// Thousands of drawings: a plain comparison of their numbers, not a locale-aware one.
+	const byDrawing = [...drawings.values()]
+		.map((drawing) => ({ drawing, owed: owed(drawing.counts) }))
+		.sort(
+			(a, b) =>
+				b.owed - a.owed ||
+				(a.drawing.number < b.drawing.number ? -1 : a.drawing.number > b.drawing.number ? 1 : 0)
+		)
+		.map(({ drawing }) => drawing);
 	return {
 		total,
 		byArea: [...areas.entries()]
@@ -160,9 +166,7 @@ export function owedList(projectId: number, state: JointState, query: Outstandin
 		.limit(query.limit)
 		.offset(query.offset)
 		.all();
-	const total =
-		db.select({ n: count() }).from(j).innerJoin(d, eq(d.id, j.drawingId)).where(where).get()?.n ??
-		0;
+	const total = stateTotal(projectId, state, query);
 	return {
 		state,
 		total,
@@ -177,6 +181,33 @@ export function owedList(projectId: number, state: JointState, query: Outstandin
 			})}`
 		}))
 	};
+}
+
+/** How many joints stand in a state: from the kept counts unless a welder is asked for. */
+function stateTotal(projectId: number, state: JointState, query: OutstandingQuery): number {
+	if (query.welder !== undefined) {
+		const where = and(...filters(projectId, query), eq(j.state, state));
+		return (
+			db.select({ n: count() }).from(j).innerJoin(d, eq(d.id, j.drawingId)).where(where).get()?.n ??
+			0
+		);
+	}
+	const c = schema.jointStateCounts;
+	return (
+		db
+			.select({ n: sql<number>`coalesce(sum(${c.n}), 0)` })
+			.from(c)
+			.innerJoin(d, eq(d.id, c.drawingId))
+			.where(
+				and(
+					eq(c.projectId, projectId),
+					eq(c.state, state),
+					query.area !== undefined ? eq(d.area, query.area) : undefined,
+					query.drawing !== undefined ? eq(c.drawingId, query.drawing) : undefined
+				)
+			)
+			.get()?.n ?? 0
+	);
 }
 
 /** What each role owes, state by state. */

@@ -55,9 +55,17 @@ function whereOf(projectId: number, filter: WeldLogFilter, joined: boolean): SQL
 	const pattern = `%${filter.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
 	const like = (column: AnySQLiteColumn) => sql`${column} like ${pattern} escape '\\'`;
 	return and(
-		joined ? eq(d.projectId, projectId) : eq(j.projectId, projectId),
+		// One drawing is asked by its id, checked to be the project's: asked of the joint, the
+		// project would lead the planner to walk every joint in the sort's index instead.
+		filter.drawing
+			? and(
+					eq(j.drawingId, filter.drawing),
+					inArray(j.drawingId, drawingsWhere(projectId, eq(d.id, filter.drawing)))
+				)
+			: joined
+				? eq(d.projectId, projectId)
+				: eq(j.projectId, projectId),
 		filter.state ? eq(j.state, filter.state) : undefined,
-		filter.drawing ? eq(j.drawingId, filter.drawing) : undefined,
 		filter.area
 			? joined
 				? eq(d.area, filter.area)
@@ -407,24 +415,31 @@ export function summary(projectId: number, { drawings = false } = {}) {
 	};
 }
 
-/** Each drawing with joints, in number order, with its joints per state. */
+/**
+ * Each drawing with joints, in number order, with its joints per state: the drawings off
+ * their number index and the counts off theirs, joined here rather than sorted in SQL.
+ */
 function drawingCounts(projectId: number) {
 	const c = schema.jointStateCounts;
-	const rows = db
-		.select({ id: d.id, number: d.number, area: d.area, state: c.state, n: c.n })
+	const perDrawing = new Map<number, StateCounts>();
+	for (const row of db
+		.select({ drawingId: c.drawingId, state: c.state, n: c.n })
 		.from(c)
-		.innerJoin(d, eq(d.id, c.drawingId))
 		.where(eq(c.projectId, projectId))
-		.orderBy(asc(d.number))
-		.all();
+		.all()) {
+		const counts = perDrawing.get(row.drawingId) ?? emptyCounts();
+		counts[row.state] += row.n;
+		perDrawing.set(row.drawingId, counts);
+	}
 	const byDrawing: { id: number; number: string; area: string; counts: StateCounts }[] = [];
-	for (const row of rows) {
-		let last = byDrawing.at(-1);
-		if (last?.id !== row.id) {
-			last = { id: row.id, number: row.number, area: row.area, counts: emptyCounts() };
-			byDrawing.push(last);
-		}
-		last.counts[row.state] += row.n;
+	for (const drawing of db
+		.select({ id: d.id, number: d.number, area: d.area })
+		.from(d)
+		.where(eq(d.projectId, projectId))
+		.orderBy(asc(d.number))
+		.all()) {
+		const counts = perDrawing.get(drawing.id);
+		if (counts) byDrawing.push({ ...drawing, counts });
 	}
 	return byDrawing;
 }

@@ -329,12 +329,15 @@ export const joints = sqliteTable(
 	},
 	(t) => [
 		uniqueIndex('joints_drawing_number').on(t.drawingId, t.number),
-		index('joints_project_state').on(t.projectId, t.state, t.stateSince),
+		// The repair cycle rides along so a state's joints find their current weld (the log's
+		// weld-date sort) without reading the rows.
+		index('joints_project_state').on(t.projectId, t.state, t.stateSince, t.repairCycle),
 		index('joints_project_sort').on(t.projectId, t.sortKey),
 		index('joints_project_line').on(t.projectId, t.line),
 		// The weld log's default order (drawing, then weld number) and its age sort, read
 		// straight off an index so a page of 100,000 joints needs no sort.
-		index('joints_drawing_sort').on(t.drawingId, t.sortKey),
+		// With the id (the order's tie-break), number and line, the text search walks it too.
+		index('joints_drawing_sort').on(t.drawingId, t.sortKey, t.id, t.number, t.line),
 		index('joints_project_since').on(t.projectId, t.stateSince),
 		// Covers the summary's count per drawing and state without touching the rows.
 		index('joints_project_drawing_state').on(t.projectId, t.drawingId, t.state),
