@@ -13,7 +13,7 @@ DROP INDEX `joints_project_state`;--> statement-breakpoint
 DROP INDEX `joints_drawing_sort`;--> statement-breakpoint
 CREATE INDEX `joints_project_rank` ON `joints` (`project_id`,(case "state" when 'awaiting_fitup' then 0 when 'fitup_rejected' then 1 when 'ready_to_weld' then 2 when 'awaiting_visual' then 3 when 'repair' then 4 when 'awaiting_nde' then 5 when 'accepted' then 6 when 'void' then 7 end),`state_since`);--> statement-breakpoint
 CREATE INDEX `joints_project_search` ON `joints` (`project_id`,`drawing_id`,`number`,`line`);--> statement-breakpoint
-CREATE INDEX `joints_project_state` ON `joints` (`project_id`,`state`,`state_since`,`repair_cycle`);--> statement-breakpoint
+CREATE INDEX `joints_project_state` ON `joints` (`project_id`,`state`,`state_since`,`id`,`repair_cycle`);--> statement-breakpoint
 CREATE INDEX `joints_drawing_sort` ON `joints` (`drawing_id`,`sort_key`,`id`,`number`,`line`);--> statement-breakpoint
 CREATE INDEX `inspections_against_verdict` ON `inspections` (`joint_id`) WHERE "against_verdict" = 1;--> statement-breakpoint
 -- Written by hand: the counts start from the joints there are, and triggers keep them.

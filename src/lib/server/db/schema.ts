@@ -329,9 +329,11 @@ export const joints = sqliteTable(
 	},
 	(t) => [
 		uniqueIndex('joints_drawing_number').on(t.drawingId, t.number),
-		// The repair cycle rides along so a state's joints find their current weld (the log's
-		// weld-date sort) without reading the rows.
-		index('joints_project_state').on(t.projectId, t.state, t.stateSince, t.repairCycle),
+		// Oldest in a state first, the id breaking ties as every list's order does; the repair
+		// cycle rides along so the joints find their current weld (the log's weld-date sort)
+		// without reading the rows. An index column after the order's must name the id, or
+		// SQLite sorts instead.
+		index('joints_project_state').on(t.projectId, t.state, t.stateSince, t.id, t.repairCycle),
 		index('joints_project_sort').on(t.projectId, t.sortKey),
 		index('joints_project_line').on(t.projectId, t.line),
 		// The weld log's default order (drawing, then weld number) and its age sort, read
