@@ -207,6 +207,7 @@ describe('GET /api/projects/{id}/outstanding', () => {
 		expect(bad.body.field).toBe('limit');
 	});
 
+	// Rule: `?list={state}&offset=` answers one owed list (README, API table).
 	it('pages one owed list with list and offset, oldest first, without a gap or a repeat', async () => {
 		for (let n = 0; n < 5; n++) placeJoint(true);
 		const whole = outstanding.board(projectId, query({ limit: 200 }));

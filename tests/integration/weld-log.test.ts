@@ -130,6 +130,7 @@ describe('weld log filters', () => {
 		expect(nonEmpty).toBeGreaterThan(cases.length / 2);
 	});
 
+	// Rule: the welder filter matches any weld of the joint (src/lib/server/weld-log.ts, whereOf).
 	it('finds every joint a welder welded, the welds a repair replaced among them', () => {
 		const stamps = db
 			.select({ stamp: schema.welders.stamp })
@@ -153,6 +154,8 @@ describe('weld log filters', () => {
 		expect(byEarlierWeld).toBeGreaterThan(0);
 	});
 
+	// Rule: a decision against the verdict is flagged wherever the record shows; the flag is
+	// set when the inspection is recorded (src/lib/server/inspections.ts, record).
 	it('flags the joints decided against the verdict, and filters on them', () => {
 		const flagged = new Set(
 			db
