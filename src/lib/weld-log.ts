@@ -44,6 +44,8 @@ export interface WeldLogRow {
 	ndeAt: number | null;
 	repairCount: number;
 	voidReason: string | null;
+	/** A standing fit-up, visual or NDE decision of this joint goes against the verdict. */
+	againstVerdict: boolean;
 }
 
 export interface WeldLogColumn {
@@ -129,6 +131,12 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 	{ id: 'ndeReports', header: 'NDE report', value: (r) => r.ndeReports, shown: false },
 	{ id: 'ndeResult', header: 'NDE', value: (r) => result(r.ndeResult), shown: true },
 	{ id: 'ndeAt', header: 'NDE date', value: (r) => utcDay(r.ndeAt), shown: false },
+	{
+		id: 'againstVerdict',
+		header: 'Against verdict',
+		value: (r) => (r.againstVerdict ? 'yes' : 'no'),
+		shown: true
+	},
 	{ id: 'repairCount', header: 'Repairs', value: (r) => r.repairCount, shown: false },
 	{ id: 'voidReason', header: 'Void reason', value: (r) => r.voidReason ?? '', shown: false }
 ];

@@ -5,7 +5,7 @@
  * is in the mail stand-in.
  */
 import { expect, test } from '@playwright/test';
-import { latestMailText, signInInBrowser, signedInClient } from './support';
+import { latestMailText, pickDrawing, signInInBrowser, signedInClient } from './support';
 
 interface OwedItem {
 	jointId: number;
@@ -52,7 +52,7 @@ test('a weld with two stamps, then a visual request that reaches the inspector',
 	await signInInBrowser(inspector, 'inspector@tacksheet.test');
 	await expect(inspector).toHaveURL(/\/projects$/);
 	await inspector.goto('/projects/1/outstanding');
-	await inspector.getByLabel('Drawing').selectOption(String(joint!.drawingId));
+	await pickDrawing(inspector, joint!.drawingNumber);
 	const inspectorQueue = inspector.getByTestId('owed-by-inspector');
 	await expect(inspectorQueue.getByTestId('owed-awaiting_visual')).toBeVisible();
 
@@ -81,7 +81,7 @@ test('a weld with two stamps, then a visual request that reaches the inspector',
 	await expect(inspectorRow.getByTestId('requested')).toHaveCount(0);
 
 	await page.goto('/projects/1/outstanding');
-	await page.getByLabel('Drawing').selectOption(String(joint!.drawingId));
+	await pickDrawing(page, joint!.drawingNumber);
 	const row = page.locator(`[data-testid=owed-row][data-joint="${joint!.jointId}"]`);
 	await row.getByRole('checkbox').check();
 	await page.getByRole('button', { name: /Request visual inspection \(1\)/ }).click();

@@ -35,3 +35,14 @@ export async function latestMailText(page: Page, to: string): Promise<string> {
 	await page.getByRole('tab', { name: 'Plain text' }).click();
 	return (await page.getByTestId('mail-text').textContent()) ?? '';
 }
+
+/** Choose a drawing in a drawing picker: type its number, then tap (or click) its match. */
+export async function pickDrawing(page: Page, number: string, label = 'Drawing (all if none)') {
+	await page.getByRole('combobox', { name: label }).fill(number);
+	const exact = new RegExp(`^${number.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}( |$)`);
+	await page
+		.getByRole('listbox', { name: 'Matching drawings' })
+		.getByRole('option', { name: exact })
+		.click();
+	await expect(page.getByTestId('drawing-chip').filter({ hasText: number })).toBeVisible();
+}

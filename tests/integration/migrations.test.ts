@@ -30,10 +30,20 @@ describe('migrations', () => {
 			'inspection_requests',
 			'nde_selections',
 			'exports',
-			'audit_events'
+			'audit_events',
+			'joint_state_counts'
 		]) {
 			expect(tables).toContain(table);
 		}
+		// The state counts are kept by triggers; a rebuild of `joints` would drop them.
+		const triggers = client
+			.prepare("select name from sqlite_master where type = 'trigger' and tbl_name = 'joints'")
+			.all() as { name: string }[];
+		expect(triggers.map((t) => t.name).sort()).toEqual([
+			'joints_counts_delete',
+			'joints_counts_insert',
+			'joints_counts_update'
+		]);
 		expect(client.pragma('journal_mode', { simple: true })).toBe('wal');
 		// 1 = NORMAL (https://www.sqlite.org/pragma.html#pragma_synchronous)
 		expect(client.pragma('synchronous', { simple: true })).toBe(1);

@@ -206,4 +206,37 @@ describe('GET /api/projects/{id}/outstanding', () => {
 		expect(bad.status).toBe(400);
 		expect(bad.body.field).toBe('limit');
 	});
+
+	// Rule: `?list={state}&offset=` answers one owed list (README, API table).
+	it('pages one owed list with list and offset, oldest first, without a gap or a repeat', async () => {
+		for (let n = 0; n < 5; n++) placeJoint(true);
+		const whole = outstanding.board(projectId, query({ limit: 200 }));
+		const ready = whole.owed.foreman.find((g) => g.state === 'ready_to_weld')!;
+		expect(ready.total).toBeGreaterThan(4);
+		const seen: number[] = [];
+		for (let offset = 0; offset < ready.total; offset += 2) {
+			const page = await get(`?list=ready_to_weld&offset=${offset}&limit=2`);
+			expect(page.status).toBe(200);
+			expect(page.body.state).toBe('ready_to_weld');
+			expect(page.body.total).toBe(ready.total);
+			expect(page.body.offset).toBe(offset);
+			expect(page.body).not.toHaveProperty('counts');
+			seen.push(...page.body.items.map((i: { jointId: number }) => i.jointId));
+		}
+		expect(seen).toEqual(ready.items.map((i) => i.jointId));
+		const past = await get(`?list=ready_to_weld&offset=${ready.total}`);
+		expect(past.body.items).toEqual([]);
+		// The board itself always starts each list at its oldest joint.
+		const board = await get('?offset=3&limit=1');
+		expect(board.body.owed.foreman[0].offset).toBe(0);
+		for (const [search, field] of [
+			['?list=accepted', 'list'],
+			['?list=ready_to_weld&offset=-1', 'offset'],
+			['?list=ready_to_weld&offset=x', 'offset']
+		]) {
+			const bad = await get(search);
+			expect(bad.status, search).toBe(400);
+			expect(bad.body.field, search).toBe(field);
+		}
+	});
 });

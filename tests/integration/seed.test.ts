@@ -8,6 +8,7 @@ import * as storage from '$lib/server/storage';
 import { deriveJointState, JOINT_STATES } from '$lib/joint-state';
 import { verifyPassword } from '$lib/server/passwords';
 import { PDFDocument } from 'pdf-lib';
+import { countsTable, directCounts } from '../fixtures/state-counts';
 
 describe('demo seed', () => {
 	let first: Awaited<ReturnType<typeof seedIfEmpty>>;
@@ -96,6 +97,11 @@ describe('demo seed', () => {
 		for (const joint of joints) {
 			expect(deriveJointState(stateInput(joint.id)!).state, joint.number).toBe(joint.state);
 		}
+	});
+
+	it('keeps the per-drawing state counts equal to a direct count of the joints', () => {
+		expect(countsTable()).toEqual(directCounts());
+		expect(countsTable().length).toBeGreaterThan(0);
 	});
 
 	it('puts every live joint on the current revision of its drawing', () => {

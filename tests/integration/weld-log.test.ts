@@ -55,6 +55,7 @@ function directCount(filter: {
 	area?: string;
 	welder?: string;
 	q?: string;
+	againstVerdict?: string;
 }) {
 	const clauses = [sql`j.project_id = ${lbm}`];
 	if (filter.state) clauses.push(sql`j.state = ${filter.state}`);
@@ -63,7 +64,8 @@ function directCount(filter: {
 	if (filter.welder)
 		clauses.push(sql`exists (select 1 from welds w join weld_welders ww on ww.weld_id = w.id
 			join welders wl on wl.id = ww.welder_id
-			where w.joint_id = j.id and w.repair_cycle = j.repair_cycle and wl.stamp = ${filter.welder})`);
+			where w.joint_id = j.id and wl.stamp = ${filter.welder})`);
+	if (filter.againstVerdict === '1') clauses.push(sql`j.id in (${againstVerdictJoints})`);
 	if (filter.q) {
 		const p = `%${filter.q}%`;
 		clauses.push(sql`(j.number like ${p} or dr.number like ${p} or j.line like ${p})`);
@@ -73,6 +75,10 @@ function directCount(filter: {
 	);
 	return row.n;
 }
+
+/** Joints with a standing (uncorrected) inspection decided against the verdict. */
+const againstVerdictJoints = sql`select i.joint_id from inspections i where i.against_verdict = 1
+	and not exists (select 1 from inspections later where later.supersedes_id = i.id)`;
 
 beforeAll(async () => {
 	await seedIfEmpty();
@@ -105,6 +111,8 @@ describe('weld log filters', () => {
 			{ q: '1102' },
 			{ q: '1' },
 			{ q: 'no such thing' },
+			{ againstVerdict: '1' },
+			{ againstVerdict: '1', area: areas[0] },
 			{ state: 'accepted', area: areas[0] },
 			{ state: 'awaiting_visual', welder: stamps[0] },
 			{ area: areas[0], welder: stamps[1], q: '1' },
@@ -122,15 +130,50 @@ describe('weld log filters', () => {
 		expect(nonEmpty).toBeGreaterThan(cases.length / 2);
 	});
 
-	it('shows the welder it was filtered by on every row it gives', () => {
-		const stamp = db
+	// Rule: the welder filter matches any weld of the joint (src/lib/server/weld-log.ts, whereOf).
+	it('finds every joint a welder welded, the welds a repair replaced among them', () => {
+		const stamps = db
 			.select({ stamp: schema.welders.stamp })
 			.from(schema.welders)
 			.where(eq(schema.welders.projectId, lbm))
-			.get()!.stamp;
-		const rows = weldLog.list(lbm, query({ welder: stamp, pageSize: '500' })).items;
-		expect(rows.length).toBeGreaterThan(0);
-		for (const row of rows) expect([...row.rootWelders, ...row.fillCapWelders]).toContain(stamp);
+			.all()
+			.map((w) => w.stamp);
+		let byEarlierWeld = 0;
+		for (const stamp of stamps) {
+			const rows = weldLog.list(lbm, query({ welder: stamp, pageSize: '500' })).items;
+			for (const row of rows) {
+				const welded = db.get<{ n: number }>(sql`select count(*) as n from welds w
+					join weld_welders ww on ww.weld_id = w.id join welders wl on wl.id = ww.welder_id
+					where w.joint_id = ${row.id} and wl.stamp = ${stamp}`).n;
+				expect(welded, `${stamp} on ${row.weldNumber}`).toBeGreaterThan(0);
+				// The row shows the latest weld's stamps; an earlier weld is how it matched.
+				if (![...row.rootWelders, ...row.fillCapWelders].includes(stamp)) byEarlierWeld++;
+			}
+		}
+		// The demo job has repairs welded by another hand than the first weld.
+		expect(byEarlierWeld).toBeGreaterThan(0);
+	});
+
+	// Rule: a decision against the verdict is flagged wherever the record shows; the flag is
+	// set when the inspection is recorded (src/lib/server/inspections.ts, record).
+	it('flags the joints decided against the verdict, and filters on them', () => {
+		const flagged = new Set(
+			db
+				.all<{ id: number }>(
+					sql`select distinct joint_id as id from (${againstVerdictJoints})
+				where joint_id in (select id from joints where project_id = ${lbm})`
+				)
+				.map((r) => r.id)
+		);
+		expect(flagged.size).toBeGreaterThan(0);
+		const all = weldLog.list(lbm, query({ pageSize: '500' })).items;
+		for (const row of all) expect(row.againstVerdict, row.weldNumber).toBe(flagged.has(row.id));
+		const only = weldLog.list(lbm, query({ againstVerdict: '1', pageSize: '500' }));
+		expect(new Set(only.items.map((row) => row.id))).toEqual(flagged);
+		const column = weldLog.COLUMNS.find((c) => c.id === 'againstVerdict')!;
+		expect(column.header).toBe('Against verdict');
+		expect(only.items.map((row) => column.value(row))).toEqual(only.items.map(() => 'yes'));
+		expect(weldLogQuery.safeParse({ againstVerdict: 'maybe' }).success).toBe(false);
 	});
 
 	it('reads the current revision, the repair suffix and the latest results', () => {
@@ -164,8 +207,22 @@ describe('weld log order and pages', () => {
 			expect(age[n - 1].stateSince).toBeLessThanOrEqual(age[n].stateSince);
 		const ageDesc = weldLog.list(lbm, query({ sort: 'age', dir: 'desc', pageSize: '500' })).items;
 		expect(ageDesc.map((row) => row.id)).toEqual([...age].reverse().map((row) => row.id));
+		// By state in the order the work runs (JOINT_STATES, src/lib/joint-state.ts), not by name;
+		// within a state, longest waiting first.
 		const state = weldLog.list(lbm, query({ sort: 'state', pageSize: '500' })).items;
-		for (let n = 1; n < state.length; n++) expect(state[n - 1].state <= state[n].state).toBe(true);
+		const rank = (row: WeldLogRow) => JOINT_STATES.indexOf(row.state);
+		for (let n = 1; n < state.length; n++) {
+			expect(rank(state[n - 1])).toBeLessThanOrEqual(rank(state[n]));
+			if (rank(state[n - 1]) === rank(state[n]))
+				expect(state[n - 1].stateSince).toBeLessThanOrEqual(state[n].stateSince);
+		}
+		expect(new Set(state.map((row) => row.state)).size).toBeGreaterThan(3);
+		expect(state[0].state).toBe('awaiting_fitup');
+		const stateDesc = weldLog.list(
+			lbm,
+			query({ sort: 'state', dir: 'desc', pageSize: '500' })
+		).items;
+		expect(stateDesc.map((row) => row.id)).toEqual([...state].reverse().map((row) => row.id));
 		const welded = weldLog.list(
 			lbm,
 			query({ sort: 'weldedOn', dir: 'desc', pageSize: '500' })

@@ -3,7 +3,13 @@
  * schema each, shared by the API routes, the page actions and the tests.
  */
 import { z } from 'zod';
-import type { RequestStage } from '$lib/outstanding';
+import type { JointState } from '$lib/joint-state';
+import { OWED_STATES, type RequestStage } from '$lib/outstanding';
+
+const OWED_LIST_STATES = [...OWED_STATES.foreman, ...OWED_STATES.inspector] as [
+	JointState,
+	...JointState[]
+];
 
 const id = z.coerce.number().int().min(1);
 const isoDate = (what: string) =>
@@ -21,7 +27,24 @@ export const outstandingQuerySchema = z.object({
 	drawing: id.optional(),
 	welder: id.optional(),
 	/** Rows per owed list; a big job has thousands outstanding. */
-	limit: z.coerce.number().int().min(1).max(200).default(50)
+	limit: z.coerce
+		.number({ error: 'The limit is a whole number from 1 to 200.' })
+		.int({ error: 'The limit is a whole number from 1 to 200.' })
+		.min(1, { error: 'The limit is a whole number from 1 to 200.' })
+		.max(200, { error: 'The limit is a whole number from 1 to 200.' })
+		.default(50),
+	/** One owed list only (a state some role owes), for "show more" on the board. */
+	list: z
+		.enum(OWED_LIST_STATES, {
+			error: `The list is one of the owed states: ${OWED_LIST_STATES.join(', ')}.`
+		})
+		.optional(),
+	/** Joints of that list to skip, oldest first; only with `list`. */
+	offset: z.coerce
+		.number({ error: 'The offset is a whole number from 0.' })
+		.int({ error: 'The offset is a whole number from 0.' })
+		.min(0, { error: 'The offset is a whole number from 0.' })
+		.default(0)
 });
 export type OutstandingQuery = z.infer<typeof outstandingQuerySchema>;
 

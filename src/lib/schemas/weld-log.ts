@@ -18,6 +18,14 @@ export const weldLogFilter = z.object({
 		.trim()
 		.max(24, { error: 'A welder stamp has at most 24 characters.' })
 		.optional(),
+	/** Only joints with a standing decision against the verdict (`1`), or any joint. */
+	againstVerdict: z
+		.stringbool({
+			truthy: ['1', 'true', 'yes'],
+			falsy: ['0', 'false', 'no'],
+			error: 'againstVerdict is 1 (only those) or left out.'
+		})
+		.optional(),
 	q: z.string().trim().max(80, { error: 'Search for at most 80 characters.' }).default(''),
 	sort: z
 		.enum(WELD_LOG_SORTS, { error: `Sort by one of: ${WELD_LOG_SORTS.join(', ')}.` })

@@ -148,6 +148,17 @@ export function areas(projectId: number): string[] {
 		.map((row) => row.area);
 }
 
+/** The drawings of these ids in the project, by number: what a drawing picker shows as chosen. */
+export function picked(projectId: number, ids: number[]) {
+	if (ids.length === 0) return [];
+	return db
+		.select({ id: d.id, number: d.number, title: d.title })
+		.from(d)
+		.where(and(eq(d.projectId, projectId), inArray(d.id, ids)))
+		.orderBy(asc(d.number))
+		.all();
+}
+
 export function get(projectId: number, drawingId: number) {
 	return db
 		.select()

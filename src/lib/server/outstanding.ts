@@ -3,7 +3,7 @@
  * and what each role owes, oldest first. Counted and ordered in SQL on the joints' cached
  * state (index joints_project_state: project, state, state_since), capped per list.
  */
-import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm';
 import { db, schema } from './db';
 import { displayWeldNumber, JOINT_STATES, type JointState } from '$lib/joint-state';
 import { OWED_STATES, type OwingRole } from '$lib/outstanding';
@@ -34,9 +34,131 @@ function add(into: Counts, state: JointState, n: number) {
 	into[state] = (into[state] ?? 0) + n;
 }
 
-/** Joint counts by state, per area, per area and system, and per drawing. */
-export function counts(projectId: number, query: OutstandingQuery) {
-	const rows = db
+type CountRow = {
+	area: string;
+	system: string;
+	drawingId: number;
+	drawingNumber: string;
+	state: JointState;
+	n: number;
+};
+type DrawingCounts = {
+	drawingId: number;
+	number: string;
+	area: string;
+	system: string;
+	counts: Counts;
+};
+
+const OWED = [...OWED_STATES.foreman, ...OWED_STATES.inspector];
+const owedOf = (c: Counts) => OWED.reduce((n, s) => n + (c[s] ?? 0), 0);
+
+/** Totals, areas and systems from rows of (area, system, state, n). */
+function rollUp(rows: Omit<CountRow, 'drawingId' | 'drawingNumber'>[]) {
+	const total: Counts = {};
+	const areas = new Map<string, Counts>();
+	const systems = new Map<string, { area: string; system: string; counts: Counts }>();
+	for (const row of rows) {
+		add(total, row.state, row.n);
+		if (!areas.has(row.area)) areas.set(row.area, {});
+		add(areas.get(row.area)!, row.state, row.n);
+		const key = `${row.area}\u0000${row.system}`;
+		if (!systems.has(key)) systems.set(key, { area: row.area, system: row.system, counts: {} });
+		add(systems.get(key)!.counts, row.state, row.n);
+	}
+	return {
+		total,
+		byArea: [...areas.entries()]
+			.map(([area, counts]) => ({ area, counts }))
+			.sort((a, b) => a.area.localeCompare(b.area)),
+		bySystem: [...systems.values()].sort(
+			(a, b) => a.area.localeCompare(b.area) || a.system.localeCompare(b.system)
+		)
+	};
+}
+
+/** Rows of (drawing, state, n) folded into one entry per drawing, in first-seen order. */
+function perDrawing(rows: CountRow[]): Map<number, DrawingCounts> {
+	const drawings = new Map<number, DrawingCounts>();
+	for (const row of rows) {
+		if (!drawings.has(row.drawingId)) {
+			drawings.set(row.drawingId, {
+				drawingId: row.drawingId,
+				number: row.drawingNumber,
+				area: row.area,
+				system: row.system,
+				counts: {}
+			});
+		}
+		add(drawings.get(row.drawingId)!.counts, row.state, row.n);
+	}
+	return drawings;
+}
+
+/**
+ * From the counts the triggers keep (joint_state_counts): areas and systems grouped in
+ * SQL, and only the drawings owing most read one by one, so 5,000 drawings cost little.
+ */
+function keptCounts(projectId: number, query: OutstandingQuery) {
+	const c = schema.jointStateCounts;
+	const where = and(
+		eq(c.projectId, projectId),
+		query.area !== undefined ? eq(d.area, query.area) : undefined,
+		query.drawing !== undefined ? eq(c.drawingId, query.drawing) : undefined
+	);
+	const fromCounts = () => db.select().from(c).innerJoin(d, eq(d.id, c.drawingId)).$dynamic();
+	const systemRows = db
+		.select({ area: d.area, system: d.system, state: c.state, n: sql<number>`sum(${c.n})` })
+		.from(c)
+		.innerJoin(d, eq(d.id, c.drawingId))
+		.where(where)
+		.groupBy(d.area, d.system, c.state)
+		.all();
+	const owedSum = sql<number>`sum(case when ${c.state} in (${sql.join(
+		OWED.map((state) => sql`${state}`),
+		sql`, `
+	)}) then ${c.n} else 0 end)`;
+	const top = db
+		.select({ drawingId: c.drawingId })
+		.from(c)
+		.innerJoin(d, eq(d.id, c.drawingId))
+		.where(where)
+		.groupBy(c.drawingId)
+		.orderBy(desc(owedSum), asc(d.number))
+		.limit(DRAWING_ROWS)
+		.all()
+		.map((row) => row.drawingId);
+	const drawingsTotal =
+		db
+			.select({ n: sql<number>`count(distinct ${c.drawingId})` })
+			.from(c)
+			.innerJoin(d, eq(d.id, c.drawingId))
+			.where(where)
+			.get()?.n ?? 0;
+	const drawingRows = top.length
+		? (fromCounts()
+				.where(inArray(c.drawingId, top))
+				.all()
+				.map((row) => ({
+					area: row.drawings.area,
+					system: row.drawings.system,
+					drawingId: row.drawings.id,
+					drawingNumber: row.drawings.number,
+					state: row.joint_state_counts.state,
+					n: row.joint_state_counts.n
+				})) satisfies CountRow[])
+		: [];
+	const drawings = perDrawing(drawingRows);
+	return {
+		...rollUp(systemRows),
+		byDrawing: top.map((id) => drawings.get(id)!).filter(Boolean),
+		drawingsTotal
+	};
+}
+
+/** With a welder asked for, only the joints themselves can answer: grouped from them. */
+function welderCounts(projectId: number, query: OutstandingQuery) {
+	const rows: CountRow[] = db
 		.select({
 			area: d.area,
 			system: d.system,
@@ -50,51 +172,32 @@ export function counts(projectId: number, query: OutstandingQuery) {
 		.where(and(...filters(projectId, query)))
 		.groupBy(d.area, d.system, d.id, j.state)
 		.all();
-	const total: Counts = {};
-	const areas = new Map<string, Counts>();
-	const systems = new Map<string, { area: string; system: string; counts: Counts }>();
-	const drawings = new Map<
-		number,
-		{ drawingId: number; number: string; area: string; system: string; counts: Counts }
-	>();
-	for (const row of rows) {
-		add(total, row.state, row.n);
-		if (!areas.has(row.area)) areas.set(row.area, {});
-		add(areas.get(row.area)!, row.state, row.n);
-		const key = `${row.area}\u0000${row.system}`;
-		if (!systems.has(key)) systems.set(key, { area: row.area, system: row.system, counts: {} });
-		add(systems.get(key)!.counts, row.state, row.n);
-		if (!drawings.has(row.drawingId)) {
-			drawings.set(row.drawingId, {
-				drawingId: row.drawingId,
-				number: row.drawingNumber,
-				area: row.area,
-				system: row.system,
-				counts: {}
-			});
-		}
-		add(drawings.get(row.drawingId)!.counts, row.state, row.n);
-	}
-	const owed = (c: Counts) =>
-		[...OWED_STATES.foreman, ...OWED_STATES.inspector].reduce((n, s) => n + (c[s] ?? 0), 0);
-	const byDrawing = [...drawings.values()].sort(
-		(a, b) => owed(b.counts) - owed(a.counts) || a.number.localeCompare(b.number)
-	);
+	// Thousands of drawings at most: a plain comparison of their numbers, not a locale one.
+	const byDrawing = [...perDrawing(rows).values()]
+		.map((drawing) => ({ drawing, owed: owedOf(drawing.counts) }))
+		.sort(
+			(a, b) =>
+				b.owed - a.owed ||
+				(a.drawing.number < b.drawing.number ? -1 : a.drawing.number > b.drawing.number ? 1 : 0)
+		)
+		.map(({ drawing }) => drawing);
 	return {
-		total,
-		byArea: [...areas.entries()]
-			.map(([area, counts]) => ({ area, counts }))
-			.sort((a, b) => a.area.localeCompare(b.area)),
-		bySystem: [...systems.values()].sort(
-			(a, b) => a.area.localeCompare(b.area) || a.system.localeCompare(b.system)
-		),
+		...rollUp(rows),
 		byDrawing: byDrawing.slice(0, DRAWING_ROWS),
 		drawingsTotal: byDrawing.length
 	};
 }
 
-/** One state's joints, oldest in that state first, with the sheet page of the current pin. */
-function owedList(projectId: number, state: JointState, query: OutstandingQuery) {
+/** Joint counts by state, per area, per area and system, and per drawing (those owing most). */
+export function counts(projectId: number, query: OutstandingQuery) {
+	return query.welder === undefined ? keptCounts(projectId, query) : welderCounts(projectId, query);
+}
+
+/**
+ * One state's joints, oldest in that state first, with the sheet page of the current pin;
+ * `offset` skips that many, for "show more".
+ */
+export function owedList(projectId: number, state: JointState, query: OutstandingQuery) {
 	const where = and(...filters(projectId, query), eq(j.state, state));
 	const items = db
 		.select({
@@ -125,13 +228,13 @@ function owedList(projectId: number, state: JointState, query: OutstandingQuery)
 		.where(where)
 		.orderBy(asc(j.stateSince), asc(j.id))
 		.limit(query.limit)
+		.offset(query.offset)
 		.all();
-	const total =
-		db.select({ n: count() }).from(j).innerJoin(d, eq(d.id, j.drawingId)).where(where).get()?.n ??
-		0;
+	const total = stateTotal(projectId, state, query);
 	return {
 		state,
 		total,
+		offset: query.offset,
 		items: items.map((item) => ({
 			...item,
 			label: displayWeldNumber(item.number, item.repairCycle),
@@ -144,11 +247,41 @@ function owedList(projectId: number, state: JointState, query: OutstandingQuery)
 	};
 }
 
+/** How many joints stand in a state: from the kept counts unless a welder is asked for. */
+function stateTotal(projectId: number, state: JointState, query: OutstandingQuery): number {
+	if (query.welder !== undefined) {
+		const where = and(...filters(projectId, query), eq(j.state, state));
+		return (
+			db.select({ n: count() }).from(j).innerJoin(d, eq(d.id, j.drawingId)).where(where).get()?.n ??
+			0
+		);
+	}
+	const c = schema.jointStateCounts;
+	return (
+		db
+			.select({ n: sql<number>`coalesce(sum(${c.n}), 0)` })
+			.from(c)
+			.innerJoin(d, eq(d.id, c.drawingId))
+			.where(
+				and(
+					eq(c.projectId, projectId),
+					eq(c.state, state),
+					query.area !== undefined ? eq(d.area, query.area) : undefined,
+					query.drawing !== undefined ? eq(c.drawingId, query.drawing) : undefined
+				)
+			)
+			.get()?.n ?? 0
+	);
+}
+
 /** What each role owes, state by state. */
 export function owed(projectId: number, query: OutstandingQuery) {
 	const roles = Object.keys(OWED_STATES) as OwingRole[];
 	return Object.fromEntries(
-		roles.map((role) => [role, OWED_STATES[role].map((s) => owedList(projectId, s, query))])
+		roles.map((role) => [
+			role,
+			OWED_STATES[role].map((s) => owedList(projectId, s, { ...query, offset: 0 }))
+		])
 	) as Record<OwingRole, ReturnType<typeof owedList>[]>;
 }
 

@@ -15,6 +15,7 @@ import ExcelJS from 'exceljs';
 import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
+import { stateRank } from './db/schema';
 import { displayWeldNumber, type Decision, type JointState } from '$lib/joint-state';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
@@ -34,6 +35,9 @@ const CHUNK = 1000;
 /** Sorts that read the drawing's own columns, and so join it. */
 const BY_DRAWING = new Set<WeldLogFilter['sort']>(['drawing', 'area']);
 
+/** An inspection no later row corrects: the one that counts. */
+const standing = sql`not exists (select 1 from ${i} as later where later.supersedes_id = ${i.id})`;
+
 function drawingsWhere(projectId: number, condition: SQL) {
 	return db
 		.select({ id: d.id })
@@ -51,15 +55,24 @@ function whereOf(projectId: number, filter: WeldLogFilter, joined: boolean): SQL
 	const pattern = `%${filter.q.replace(/[%_\\]/g, (c) => `\\${c}`)}%`;
 	const like = (column: AnySQLiteColumn) => sql`${column} like ${pattern} escape '\\'`;
 	return and(
-		joined ? eq(d.projectId, projectId) : eq(j.projectId, projectId),
+		// One drawing is asked by its id, checked to be the project's: asked of the joint, the
+		// project would lead the planner to walk every joint in the sort's index instead.
+		filter.drawing
+			? and(
+					eq(j.drawingId, filter.drawing),
+					inArray(j.drawingId, drawingsWhere(projectId, eq(d.id, filter.drawing)))
+				)
+			: joined
+				? eq(d.projectId, projectId)
+				: eq(j.projectId, projectId),
 		filter.state ? eq(j.state, filter.state) : undefined,
-		filter.drawing ? eq(j.drawingId, filter.drawing) : undefined,
 		filter.area
 			? joined
 				? eq(d.area, filter.area)
 				: inArray(j.drawingId, drawingsWhere(projectId, eq(d.area, filter.area)))
 			: undefined,
-		// The stamps the log shows are those of the latest weld, so the filter asks the same.
+		// Any weld of the joint, repairs and the welds they replaced among them: a welder's
+		// record covers every joint they put metal in.
 		filter.welder
 			? inArray(
 					j.id,
@@ -69,12 +82,17 @@ function whereOf(projectId: number, filter: WeldLogFilter, joined: boolean): SQL
 						.innerJoin(w, eq(w.id, schema.weldWelders.weldId))
 						.innerJoin(schema.welders, eq(schema.welders.id, schema.weldWelders.welderId))
 						.where(
-							and(
-								eq(schema.welders.projectId, projectId),
-								eq(schema.welders.stamp, filter.welder),
-								sql`${w.repairCycle} = (select ${j.repairCycle} from ${j} where ${j.id} = ${w.jointId})`
-							)
+							and(eq(schema.welders.projectId, projectId), eq(schema.welders.stamp, filter.welder))
 						)
+				)
+			: undefined,
+		filter.againstVerdict
+			? inArray(
+					j.id,
+					db
+						.select({ jointId: i.jointId })
+						.from(i)
+						.where(and(sql`${i.againstVerdict} = 1`, standing))
 				)
 			: undefined,
 		filter.q
@@ -94,8 +112,9 @@ function orderOf(filter: WeldLogFilter): SQL[] {
 		case 'number':
 			return [dir(j.sortKey), dir(j.id)];
 		case 'state':
-			// Within a state, the joint waiting longest first: what the site chases.
-			return [dir(j.state), dir(j.stateSince), dir(j.id)];
+			// In workflow order, and within a state the joint waiting longest first: what the
+			// site chases. The same expression as the index joints_project_rank.
+			return [dir(stateRank), dir(j.stateSince), dir(j.id)];
 		case 'age':
 			return [dir(j.stateSince), dir(j.id)];
 		case 'weldedOn':
@@ -192,16 +211,12 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 			decision: i.decision,
 			reportNo: i.reportNo,
 			inspectedAt: i.inspectedAt,
+			againstVerdict: i.againstVerdict,
 			inspector: schema.users.name
 		})
 		.from(i)
 		.leftJoin(schema.users, eq(schema.users.id, i.inspectorId))
-		.where(
-			and(
-				inArray(i.jointId, ids),
-				sql`not exists (select 1 from ${i} as later where later.supersedes_id = ${i.id})`
-			)
-		)
+		.where(and(inArray(i.jointId, ids), standing))
 		.orderBy(asc(i.inspectedAt), asc(i.id))
 		.all();
 
@@ -261,7 +276,8 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 				ndeResult: ndeResult(nde.map((rec) => rec.decision)),
 				ndeAt: nde.length ? Math.max(...nde.map((rec) => rec.inspectedAt)) : null,
 				repairCount: row.repairCycle,
-				voidReason: row.voidReason
+				voidReason: row.voidReason,
+				againstVerdict: own.some((rec) => rec.againstVerdict)
 			};
 			return [row.id, item] as const;
 		})
@@ -369,47 +385,63 @@ export function fileName(projectCode: string, extension: 'csv' | 'xlsx', at = ne
 }
 
 /**
- * Joints per state for the project and each area, from one grouped count per drawing; the
- * per-drawing figures themselves only when asked, since a plant job has thousands.
+ * Joints per state for the project and each area, from the per-drawing counts the triggers
+ * keep (table joint_state_counts), grouped by area in SQL; the per-drawing figures
+ * themselves only when asked, since a plant job has thousands.
  */
 export function summary(projectId: number, { drawings = false } = {}) {
-	const rows = db
-		.select({ drawingId: j.drawingId, state: j.state, n: count() })
-		.from(j)
-		.where(eq(j.projectId, projectId))
-		.groupBy(j.drawingId, j.state)
-		.all();
-	const drawingRows = db
-		.select({ id: d.id, number: d.number, area: d.area })
-		.from(d)
-		.where(eq(d.projectId, projectId))
-		.orderBy(asc(d.number))
+	const c = schema.jointStateCounts;
+	const areaRows = db
+		.select({ area: d.area, state: c.state, n: sql<number>`sum(${c.n})` })
+		.from(c)
+		.innerJoin(d, eq(d.id, c.drawingId))
+		.where(eq(c.projectId, projectId))
+		.groupBy(d.area, c.state)
 		.all();
 	const total = emptyCounts();
-	const perDrawing = new Map<number, StateCounts>();
-	for (const row of rows) {
-		total[row.state] += row.n;
-		const counts = perDrawing.get(row.drawingId) ?? emptyCounts();
-		counts[row.state] += row.n;
-		perDrawing.set(row.drawingId, counts);
-	}
 	const perArea = new Map<string, StateCounts>();
-	const byDrawing = [];
-	for (const drawing of drawingRows) {
-		const counts = perDrawing.get(drawing.id);
-		if (!counts) continue;
-		byDrawing.push({ id: drawing.id, number: drawing.number, area: drawing.area, counts });
-		const area = perArea.get(drawing.area) ?? emptyCounts();
-		for (const state of Object.keys(counts) as JointState[]) area[state] += counts[state];
-		perArea.set(drawing.area, area);
+	for (const row of areaRows) {
+		total[row.state] += row.n;
+		const counts = perArea.get(row.area) ?? emptyCounts();
+		counts[row.state] += row.n;
+		perArea.set(row.area, counts);
 	}
 	return {
 		counts: total,
 		byArea: [...perArea]
 			.sort(([a], [b]) => a.localeCompare(b))
 			.map(([area, counts]) => ({ area, counts })),
-		...(drawings ? { byDrawing } : {})
+		...(drawings ? { byDrawing: drawingCounts(projectId) } : {})
 	};
+}
+
+/**
+ * Each drawing with joints, in number order, with its joints per state: the drawings off
+ * their number index and the counts off theirs, joined here rather than sorted in SQL.
+ */
+function drawingCounts(projectId: number) {
+	const c = schema.jointStateCounts;
+	const perDrawing = new Map<number, StateCounts>();
+	for (const row of db
+		.select({ drawingId: c.drawingId, state: c.state, n: c.n })
+		.from(c)
+		.where(eq(c.projectId, projectId))
+		.all()) {
+		const counts = perDrawing.get(row.drawingId) ?? emptyCounts();
+		counts[row.state] += row.n;
+		perDrawing.set(row.drawingId, counts);
+	}
+	const byDrawing: { id: number; number: string; area: string; counts: StateCounts }[] = [];
+	for (const drawing of db
+		.select({ id: d.id, number: d.number, area: d.area })
+		.from(d)
+		.where(eq(d.projectId, projectId))
+		.orderBy(asc(d.number))
+		.all()) {
+		const counts = perDrawing.get(drawing.id);
+		if (counts) byDrawing.push({ ...drawing, counts });
+	}
+	return byDrawing;
 }
 
 const DAY_MS = 86_400_000;
@@ -467,7 +499,7 @@ export function progress(projectId: number, area?: string) {
 	return { area: area ?? null, total, accepted: days.at(-1)?.cumulative ?? 0, days };
 }
 
-/** What the log's filters offer: the project's areas, drawings and welder stamps. */
+/** What the log's filters offer: the project's areas and welder stamps (drawings are searched). */
 export function filterOptions(projectId: number) {
 	return {
 		areas: db
@@ -477,12 +509,6 @@ export function filterOptions(projectId: number) {
 			.orderBy(asc(d.area))
 			.all()
 			.map((row) => row.area),
-		drawings: db
-			.select({ id: d.id, number: d.number })
-			.from(d)
-			.where(eq(d.projectId, projectId))
-			.orderBy(asc(d.number))
-			.all(),
 		welders: db
 			.select({ stamp: schema.welders.stamp, name: schema.welders.name })
 			.from(schema.welders)

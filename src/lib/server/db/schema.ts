@@ -16,7 +16,13 @@ import {
 	type AnySQLiteColumn
 } from 'drizzle-orm/sqlite-core';
 import type { AdapterAccountType } from '@auth/core/adapters';
-import type { JointState, NdeMethod, InspectionStage, Decision } from '../../joint-state';
+import {
+	JOINT_STATES,
+	type JointState,
+	type NdeMethod,
+	type InspectionStage,
+	type Decision
+} from '../../joint-state';
 import type { ProjectRole } from '../../permissions';
 import type { CheckId, Finding } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
@@ -277,6 +283,15 @@ export const pages = sqliteTable(
 
 // Joints and their records ------------------------------------------------------------
 
+/**
+ * A joint's state as its place in the workflow (JOINT_STATES order), so the log sorts by
+ * state as the job moves rather than alphabetically. The query must use this same
+ * expression for SQLite to read the order off the index `joints_project_rank`.
+ */
+export const stateRank = sql.raw(
+	`(case "state" ${JOINT_STATES.map((state, n) => `when '${state}' then ${n}`).join(' ')} end)`
+);
+
 export const joints = sqliteTable(
 	'joints',
 	{
@@ -324,15 +339,49 @@ export const joints = sqliteTable(
 	},
 	(t) => [
 		uniqueIndex('joints_drawing_number').on(t.drawingId, t.number),
-		index('joints_project_state').on(t.projectId, t.state, t.stateSince),
+		// Oldest in a state first, the id breaking ties as every list's order does; the repair
+		// cycle rides along so the joints find their current weld (the log's weld-date sort)
+		// without reading the rows. An index column after the order's must name the id, or
+		// SQLite sorts instead.
+		index('joints_project_state').on(t.projectId, t.state, t.stateSince, t.id, t.repairCycle),
 		index('joints_project_sort').on(t.projectId, t.sortKey),
 		index('joints_project_line').on(t.projectId, t.line),
 		// The weld log's default order (drawing, then weld number) and its age sort, read
 		// straight off an index so a page of 100,000 joints needs no sort.
-		index('joints_drawing_sort').on(t.drawingId, t.sortKey),
+		// With the id (the order's tie-break), number and line, the text search walks it too.
+		index('joints_drawing_sort').on(t.drawingId, t.sortKey, t.id, t.number, t.line),
 		index('joints_project_since').on(t.projectId, t.stateSince),
 		// Covers the summary's count per drawing and state without touching the rows.
-		index('joints_project_drawing_state').on(t.projectId, t.drawingId, t.state)
+		index('joints_project_drawing_state').on(t.projectId, t.drawingId, t.state),
+		// The log's state sort, in workflow order, oldest in each state first.
+		index('joints_project_rank').on(t.projectId, stateRank, t.stateSince),
+		// Lets the text search count its matches off an index, without reading the rows.
+		index('joints_project_search').on(t.projectId, t.drawingId, t.number, t.line)
+	]
+);
+
+/**
+ * How many joints stand in each state on each drawing: what the summary and the board
+ * count, so they never group 100,000 joints per request. Kept by triggers on `joints`
+ * (written by hand in drizzle/0002_joint_state_counts.sql), so every insert, state change,
+ * move or delete updates it in the same transaction. A migration that rebuilds `joints`
+ * drops those triggers and must create them again; the counts test catches it if not.
+ */
+export const jointStateCounts = sqliteTable(
+	'joint_state_counts',
+	{
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		drawingId: integer('drawing_id')
+			.notNull()
+			.references(() => drawings.id, { onDelete: 'cascade' }),
+		state: text('state').$type<JointState>().notNull(),
+		n: integer('n').notNull()
+	},
+	(t) => [
+		primaryKey({ columns: [t.drawingId, t.state] }),
+		index('joint_state_counts_project').on(t.projectId, t.drawingId, t.state, t.n)
 	]
 );
 
@@ -465,7 +514,9 @@ export const inspections = sqliteTable(
 		index('inspections_inspector').on(t.inspectorId, t.inspectedAt),
 		index('inspections_time').on(t.inspectedAt),
 		// "Is this row corrected by a later one?" is asked for every row the weld log shows.
-		index('inspections_supersedes').on(t.supersedesId)
+		index('inspections_supersedes').on(t.supersedesId),
+		// The few decisions against the verdict, found without reading every record.
+		index('inspections_against_verdict').on(t.jointId).where(sql.raw('"against_verdict" = 1'))
 	]
 );
 

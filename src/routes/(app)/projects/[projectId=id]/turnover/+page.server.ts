@@ -12,7 +12,8 @@ export const load = (async ({ parent, url }) => {
 		request: parsed.success ? parsed.data : null,
 		problem: parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Choose a scope.'),
 		preview: parsed.success ? exports.preview(project.id, parsed.data) : null,
-		choices: scope.choices(project.id),
+		// The drawings chosen so far, for the picker's chips; others are searched as typed.
+		choices: drawings.picked(project.id, parsed.success ? (parsed.data.scope.drawings ?? []) : []),
 		areas: drawings.areas(project.id),
 		systems: scope.systems(project.id),
 		history: exports.history(project.id)
