@@ -21,6 +21,7 @@ import type { JointFields } from '$lib/schemas/joint';
 import { POST as postCutOut } from '../../src/routes/api/joints/[jointId=id]/cut-out/+server';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { countsTable, directCounts } from '../fixtures/state-counts';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -224,6 +225,8 @@ describe('cutting out a joint', () => {
 			after: { number: `${old.number}N`, replaces: { id: old.id }, x: oldPin.x, y: oldPin.y }
 		});
 		expect(createAudit.at).toBe(cutAudit.at);
+		// The per-drawing counts the board and the summary read follow the void and the new joint.
+		expect(countsTable()).toEqual(directCounts());
 	});
 
 	it('refuses to cut out a void joint twice, and a stale version, changing nothing', async () => {
