@@ -4,6 +4,7 @@ import crypto from 'node:crypto';
 import { createRequire } from 'node:module';
 import { eq } from 'drizzle-orm';
 import yauzl from 'yauzl';
+import ExcelJS from 'exceljs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { getDocument, Util } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { db, schema } from '$lib/server/db';
@@ -55,6 +56,29 @@ function unzip(file: string): Promise<{ name: string; bytes: Buffer }[]> {
 				});
 			});
 			zip.on('end', () => resolve(entries));
+			zip.on('error', reject);
+			zip.readEntry();
+		});
+	});
+}
+
+/**
+ * Each entry's DOS date as UTC (zip APPNOTE 4.4.6: two-second resolution, no zone; the
+ * writers here write UTC fields), read by yauzl.
+ */
+function zipDates(file: string): Promise<{ name: string; date: number }[]> {
+	return new Promise((resolve, reject) => {
+		yauzl.open(file, { lazyEntries: true }, (error, zip) => {
+			if (error || !zip) return reject(error);
+			const dates: { name: string; date: number }[] = [];
+			zip.on('entry', (entry: yauzl.Entry) => {
+				dates.push({
+					name: entry.fileName,
+					date: entry.getLastModDate({ forceDosFormat: true, timezone: 'UTC' }).getTime()
+				});
+				zip.readEntry();
+			});
+			zip.on('end', () => resolve(dates));
 			zip.on('error', reject);
 			zip.readEntry();
 		});
@@ -214,12 +238,36 @@ describe('a turnover set of the demo project', () => {
 		expect(again.status.status).toBe('done');
 		const second = await zipOf(again.id);
 		expect(second.map((e) => e.name)).toEqual(entries.map((e) => e.name));
-		for (const name of ['marked-up-set.pdf', 'weld-log.csv', 'inspections.csv']) {
+		for (const name of entries.map((e) => e.name)) {
 			expect(sha(second.find((e) => e.name === name)!.bytes), name).toBe(
 				sha(entries.find((e) => e.name === name)!.bytes)
 			);
 		}
+		// The whole zip too: the history's SHA-256 (hashed by Node's crypto above) is the same.
+		expect(exports.fileOf(again.id).sha256).toBe(exports.fileOf(id).sha256);
 	}, 120_000);
+
+	it('dates the weld-log workbook and every part inside it on the export day', async () => {
+		const status = exports.status(id)!;
+		const exportDay = new Date(
+			`${new Date(status.startedAt!).toISOString().slice(0, 10)}T00:00:00.000Z`
+		);
+		const xlsx = entries.find((e) => e.name === 'weld-log.xlsx')!.bytes;
+		// Read back with exceljs (the registry's reader) and with yauzl, independently of the writer.
+		const workbook = new ExcelJS.Workbook();
+		await workbook.xlsx.load(xlsx);
+		expect(workbook.created?.getTime()).toBe(exportDay.getTime());
+		expect(workbook.modified?.getTime()).toBe(exportDay.getTime());
+		expect(workbook.getWorksheet('Weld log')?.rowCount).toBeGreaterThan(1);
+		const file = path.join(config.uploadsDir, `weld-log-${id}.xlsx`);
+		fs.writeFileSync(file, xlsx);
+		const parts = await zipDates(file);
+		expect(parts.length).toBeGreaterThan(5);
+		for (const part of parts) expect(part.date, part.name).toBe(exportDay.getTime());
+		// The turnover zip's own entries carry the same date.
+		for (const part of await zipDates(storage.pathOf(exports.fileOf(id).fileKey)))
+			expect(part.date, part.name).toBe(exportDay.getTime());
+	});
 
 	it('tells the person who started it, with the link', () => {
 		const message = mail.latestTo(turnover.email);
