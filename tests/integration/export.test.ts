@@ -255,7 +255,7 @@ describe('a turnover set of the demo project', () => {
 		const xlsx = entries.find((e) => e.name === 'weld-log.xlsx')!.bytes;
 		// Read back with exceljs (the registry's reader) and with yauzl, independently of the writer.
 		const workbook = new ExcelJS.Workbook();
-		await workbook.xlsx.load(xlsx);
+		await workbook.xlsx.load(xlsx as unknown as ArrayBuffer);
 		expect(workbook.created?.getTime()).toBe(exportDay.getTime());
 		expect(workbook.modified?.getTime()).toBe(exportDay.getTime());
 		expect(workbook.getWorksheet('Weld log')?.rowCount).toBeGreaterThan(1);
