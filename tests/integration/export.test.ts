@@ -395,6 +395,99 @@ describe('the job', () => {
 	});
 });
 
+describe('keeping and removing the zip', () => {
+	const DAY = 86_400_000;
+	async function smallExport(drawingIndex: number) {
+		const drawing = resolveScope(lbm, {
+			scope: { all: true },
+			includeSuperseded: false,
+			acceptedOnly: false
+		})[drawingIndex];
+		const done = await exportAndWait({
+			scope: { drawings: [drawing.id] },
+			includeSuperseded: false,
+			acceptedOnly: false
+		});
+		expect(done.status.status).toBe('done');
+		return { id: done.id, file: storage.pathOf(exports.fileOf(done.id).fileKey) };
+	}
+	const auditOf = (id: number) =>
+		db
+			.select()
+			.from(schema.auditEvents)
+			.where(eq(schema.auditEvents.entityId, String(id)))
+			.all()
+			.filter((a) => a.entity === 'export' && a.action === 'export.file.remove');
+
+	it('lets a person remove a finished zip; the record, size and SHA-256 stay', async () => {
+		const { id, file } = await smallExport(0);
+		const before = exports.status(id)!;
+		const after = await exports.removeFile(id, turnover.id);
+		expect(fs.existsSync(file)).toBe(false);
+		expect(after).toMatchObject({ status: 'done', fileUrl: undefined, bytes: before.bytes });
+		expect(after.sha256).toBe(before.sha256);
+		expect(after.removed).toMatchObject({ by: turnover.name });
+		expect(() => exports.fileOf(id)).toThrow(
+			expect.objectContaining({ status: 410, message: expect.stringMatching(/removed on/) })
+		);
+		await expect(exports.removeFile(id, turnover.id)).rejects.toMatchObject({ status: 409 });
+		const events = auditOf(id);
+		expect(events).toHaveLength(1);
+		expect(events[0]).toMatchObject({ userId: turnover.id });
+		expect(events[0].before).toMatchObject({ sha256: before.sha256, bytes: before.bytes });
+	}, 60_000);
+
+	it('refuses to remove the file of a job that has not finished', async () => {
+		const queued = exports.start(
+			lbm,
+			{ scope: { all: true }, includeSuperseded: true, acceptedOnly: true },
+			turnover.id,
+			''
+		);
+		await expect(exports.removeFile(queued.id, turnover.id)).rejects.toMatchObject({
+			status: 409
+		});
+		exports.cancel(queued.id, turnover.id);
+		await exports.whenSettled(queued.id);
+	});
+
+	it('removes zips past the keeping time, and only those, and says so in the audit', async () => {
+		const old = await smallExport(1);
+		const fresh = await smallExport(2);
+		const now = Date.now();
+		db.update(schema.exports)
+			.set({ finishedAt: now - 31 * DAY })
+			.where(eq(schema.exports.id, old.id))
+			.run();
+		// 0 keeps every zip.
+		expect((await exports.sweep(now, 0)).expired).toBe(0);
+		expect(fs.existsSync(old.file)).toBe(true);
+		const swept = await exports.sweep(now, 30);
+		expect(swept.expired).toBe(1);
+		expect(fs.existsSync(old.file)).toBe(false);
+		expect(fs.existsSync(fresh.file)).toBe(true);
+		expect(exports.status(old.id)!.removed).toMatchObject({ by: null, reason: 'kept for 30 days' });
+		expect(exports.status(fresh.id)!.fileUrl).toBeDefined();
+		expect(auditOf(old.id)[0]).toMatchObject({ userId: null });
+	}, 60_000);
+
+	it('removes a zip no export points to once it is an hour old', async () => {
+		const folder = path.join(config.uploadsDir, 'exports');
+		fs.mkdirSync(folder, { recursive: true });
+		const stale = path.join(folder, 'left-by-a-crash.zip.part');
+		const recent = path.join(folder, 'being-written.zip.part');
+		fs.writeFileSync(stale, 'x');
+		fs.writeFileSync(recent, 'x');
+		const twoHoursAgo = (Date.now() - 2 * 3_600_000) / 1000;
+		fs.utimesSync(stale, twoHoursAgo, twoHoursAgo);
+		const swept = await exports.sweep();
+		expect(swept.orphans).toBe(1);
+		expect(fs.existsSync(stale)).toBe(false);
+		expect(fs.existsSync(recent)).toBe(true);
+		fs.rmSync(recent);
+	});
+});
+
 describe('stamping a sheet whose boxes do not start at zero', () => {
 	it('puts each number over its pin, upright, for every rotation', async () => {
 		const source = await PDFDocument.create();

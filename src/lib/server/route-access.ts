@@ -143,7 +143,10 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.export'),
 		DELETE: project('project.export')
 	},
-	'/api/exports/[exportId=id]/file': { GET: project('project.export') },
+	'/api/exports/[exportId=id]/file': {
+		GET: project('project.export'),
+		DELETE: project('project.export')
+	},
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }
