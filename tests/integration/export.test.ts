@@ -27,7 +27,7 @@ const standardFontDataUrl =
 	path.join(path.dirname(require.resolve('pdfjs-dist/package.json')), 'standard_fonts') + path.sep;
 
 let lbm: number;
-let turnover: { id: string; email: string };
+let turnover: { id: string; email: string; name: string | null };
 
 beforeAll(async () => {
 	await seedIfEmpty();
