@@ -2,7 +2,9 @@
  * Turnover exports: a job per request, run off the request in an in-process queue, one at a
  * time. The `exports` row is the job's whole state (status, progress, the drawing it is on,
  * its report), so a page reload or a second tab reads the same picture. The heavy PDF work
- * yields to the event loop between drawings and while saving, so the server keeps answering.
+ * hands the event loop back every ~15 ms of work (between pins, sheets and footers, and while
+ * saving), so the server keeps answering. A worker thread was weighed and left out: Vite's SSR
+ * build does not bundle a `worker_threads` entry, so it would need a build step of its own.
  *
  * Retention: an export's row (who, when, scope, size, SHA-256 of the zip) is kept for good.
  * Its zip is removed after `EXPORT_KEEP_DAYS`, or earlier by a person who may export; the row

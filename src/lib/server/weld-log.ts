@@ -361,7 +361,7 @@ export async function writeXlsx(
 	for (const row of rows) {
 		sheet.addRow(columns.map((c) => c.value(row))).commit();
 		// Let the zip stream drain now and then; the rows themselves come synchronously.
-		if (++n % 1000 === 0) await new Promise((resolve) => setImmediate(resolve));
+		if (++n % 200 === 0) await new Promise((resolve) => setImmediate(resolve));
 	}
 	sheet.commit();
 	await workbook.commit();
