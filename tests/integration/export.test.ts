@@ -16,6 +16,7 @@ import { config } from '$lib/server/config';
 import { resolve as resolveScope } from '$lib/server/export/scope';
 import { buildMarkedUpSet, coverPageCount } from '$lib/server/export/marked-up-set';
 import { emptyCounts } from '$lib/state-counts';
+import { JOINT_STATES, STATE_LOOKS } from '$lib/joint-state';
 import { PDFDocument, degrees } from 'pdf-lib';
 import { STAMP } from '$lib/server/export/sheet-frame';
 import * as mail from '$lib/server/mail';
@@ -181,6 +182,10 @@ describe('a turnover set of the demo project', () => {
 					(i) => 'str' in i && i.str === `Page ${pageNo} of ${pdf.numPages}`
 				);
 				expect(footer, `footer on page ${pageNo}`).toBeDefined();
+				// Every sheet carries the key to its marks (a page read alone still explains them).
+				const words = items.map((i) => ('str' in i ? i.str.trim() : ''));
+				for (const state of JOINT_STATES)
+					expect(words, `key on page ${pageNo}`).toContain(STATE_LOOKS[state].label);
 				for (const pin of pins.filter((p) => p.pageIndex === sheet.pageIndex)) {
 					const [vx, vy] = viewport.convertToViewportPoint(pin.x, pin.y);
 					const want = { x: vx, y: vy - STAMP.labelBaseline };
