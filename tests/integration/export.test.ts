@@ -278,6 +278,7 @@ describe('a turnover set of the demo project', () => {
 		const message = mail.latestTo(turnover.email);
 		expect(message?.subject).toBe('Turnover set ready: LBM-20');
 		expect(message?.text).toContain('http://tacksheet.test/api/exports/');
+		expect(message?.text).toContain(`kept for ${config.exportKeepDays} days`);
 	});
 });
 
