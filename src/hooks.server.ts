@@ -17,6 +17,8 @@ export const init: ServerInit = async () => {
 	if (mail.usingStandIn()) await mail.startStandIn();
 	// Exports a crash left running can never finish: say so before anyone waits on them.
 	exportJobs.recoverInterrupted();
+	// Turnover zips past EXPORT_KEEP_DAYS go now and every hour after; their records stay.
+	exportJobs.startCleanup();
 	const result = await seedIfEmpty(db);
 	if (result.seeded) {
 		console.log(

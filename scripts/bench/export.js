@@ -1,11 +1,14 @@
 // A turnover set of 100 sheets carrying 2,000 pins: how long the job takes end to end, the
-// server's peak memory while it runs, and how quickly the server still answers meanwhile.
+// server's peak memory while it runs, and how quickly the server still answers meanwhile: from
+// outside (a stream of /api/health requests) and from inside (the server's event-loop delay).
 // The sheets are copies of a real demo isometric, so each page has the content of a drawing.
 import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import crypto from 'node:crypto';
 import Database from 'better-sqlite3';
 import { PDFDocument } from 'pdf-lib';
+import { fileURLToPath } from 'node:url';
 import { percentile, rssMb, startBenchServer } from './server.js';
 import { signIn } from './session.js';
 
@@ -128,13 +131,41 @@ async function seedSet(server) {
 	return { pins, sheets: DRAWINGS * SHEETS_PER_DRAWING, sourceMb };
 }
 
+/**
+ * The server's event-loop delay since the last call (p99 and longest stall), read through the
+ * preloaded loop-delay.js: one signal, then wait for the file it writes.
+ */
+async function loopDelay(server, file) {
+	const before = fs.existsSync(file) ? JSON.parse(fs.readFileSync(file, 'utf8')).seq : 0;
+	process.kill(server.pid, 'SIGUSR2');
+	for (let i = 0; i < 200; i++) {
+		await new Promise((r) => setTimeout(r, 10));
+		if (!fs.existsSync(file)) continue;
+		const figures = JSON.parse(fs.readFileSync(file, 'utf8'));
+		if (figures.seq > before) return figures;
+	}
+	throw new Error('the bench server did not report its event-loop delay');
+}
+
 export async function run({ port = 4320 } = {}) {
-	const server = await startBenchServer({ port });
+	const loopFile = path.join(
+		fs.mkdtempSync(path.join(os.tmpdir(), 'tacksheet-loop-')),
+		'delay.json'
+	);
+	const preload = fileURLToPath(new URL('./loop-delay.js', import.meta.url));
+	const server = await startBenchServer({
+		port,
+		env: {
+			NODE_OPTIONS: `${process.env.NODE_OPTIONS ?? ''} --import=${preload}`.trim(),
+			LOOP_DELAY_FILE: loopFile
+		}
+	});
 	try {
 		const seeded = await seedSet(server);
 		const cookie = await signIn(server.origin, 'turnover@tacksheet.test');
 		const headers = { cookie, origin: server.origin, 'content-type': 'application/json' };
 		const baseline = rssMb(server.pid);
+		await loopDelay(server, loopFile);
 		const started = performance.now();
 		const response = await fetch(`${server.origin}/api/projects/1/exports`, {
 			method: 'POST',
@@ -164,6 +195,7 @@ export async function run({ port = 4320 } = {}) {
 			if (!['queued', 'running'].includes(job.status)) break;
 			await new Promise((r) => setTimeout(r, 50));
 		}
+		const stalls = await loopDelay(server, loopFile);
 		running = false;
 		await prober;
 		const seconds = (performance.now() - started) / 1000;
@@ -181,6 +213,9 @@ export async function run({ port = 4320 } = {}) {
 		);
 		console.log(
 			`/api/health while the job ran: median ${percentile(latencies, 50).toFixed(1)} ms, p95 ${percentile(latencies, 95).toFixed(1)} ms, worst ${latencies.at(-1).toFixed(1)} ms over ${latencies.length} requests`
+		);
+		console.log(
+			`server event loop during the job (perf_hooks.monitorEventLoopDelay): p50 ${stalls.p50.toFixed(1)} ms, p99 ${stalls.p99.toFixed(1)} ms, longest stall ${stalls.max.toFixed(1)} ms`
 		);
 		console.log(`report: ${job.report.slice(-2).join(' ')}`);
 	} finally {

@@ -4,6 +4,7 @@ import crypto from 'node:crypto';
 import { createRequire } from 'node:module';
 import { eq } from 'drizzle-orm';
 import yauzl from 'yauzl';
+import ExcelJS from 'exceljs';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { getDocument, Util } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { db, schema } from '$lib/server/db';
@@ -15,6 +16,7 @@ import { config } from '$lib/server/config';
 import { resolve as resolveScope } from '$lib/server/export/scope';
 import { buildMarkedUpSet, coverPageCount } from '$lib/server/export/marked-up-set';
 import { emptyCounts } from '$lib/state-counts';
+import { JOINT_STATES, STATE_LOOKS } from '$lib/joint-state';
 import { PDFDocument, degrees } from 'pdf-lib';
 import { STAMP } from '$lib/server/export/sheet-frame';
 import * as mail from '$lib/server/mail';
@@ -26,7 +28,7 @@ const standardFontDataUrl =
 	path.join(path.dirname(require.resolve('pdfjs-dist/package.json')), 'standard_fonts') + path.sep;
 
 let lbm: number;
-let turnover: { id: string; email: string };
+let turnover: { id: string; email: string; name: string | null };
 
 beforeAll(async () => {
 	await seedIfEmpty();
@@ -61,6 +63,29 @@ function unzip(file: string): Promise<{ name: string; bytes: Buffer }[]> {
 	});
 }
 
+/**
+ * Each entry's DOS date as UTC (zip APPNOTE 4.4.6: two-second resolution, no zone; the
+ * writers here write UTC fields), read by yauzl.
+ */
+function zipDates(file: string): Promise<{ name: string; date: number }[]> {
+	return new Promise((resolve, reject) => {
+		yauzl.open(file, { lazyEntries: true }, (error, zip) => {
+			if (error || !zip) return reject(error);
+			const dates: { name: string; date: number }[] = [];
+			zip.on('entry', (entry: yauzl.Entry) => {
+				dates.push({
+					name: entry.fileName,
+					date: entry.getLastModDate({ forceDosFormat: true, timezone: 'UTC' }).getTime()
+				});
+				zip.readEntry();
+			});
+			zip.on('end', () => resolve(dates));
+			zip.on('error', reject);
+			zip.readEntry();
+		});
+	});
+}
+
 async function exportAndWait(request: ExportRequest) {
 	const { id } = exports.start(lbm, request, turnover.id, 'http://tacksheet.test');
 	await exports.whenSettled(id);
@@ -86,6 +111,8 @@ interface Manifest {
 	}[];
 	app: { version: string };
 	pages: number;
+	exportDay: string;
+	recordsAsOf: string | null;
 }
 
 const sha = (bytes: Uint8Array) => crypto.createHash('sha256').update(bytes).digest('hex');
@@ -124,6 +151,20 @@ describe('a turnover set of the demo project', () => {
 		expect(manifest.app.version).toBe(
 			JSON.parse(fs.readFileSync('package.json', 'utf8')).version as string
 		);
+		// The manifest's time is the newest record behind the set, read here straight from the tables.
+		const newest = db.$client
+			.prepare(
+				`select max(t) as t from (select max(updated_at) as t from joints where project_id = ?
+				 union all select max(p.updated_at) from pins p join joints j on j.id = p.joint_id
+				   where j.project_id = ?
+				 union all select max(w.recorded_at) from welds w join joints j on j.id = w.joint_id
+				   where j.project_id = ?
+				 union all select max(i.inspected_at) from inspections i join joints j on j.id = i.joint_id
+				   where j.project_id = ?)`
+			)
+			.get(lbm, lbm, lbm, lbm) as { t: number };
+		expect(manifest.recordsAsOf).toBe(new Date(newest.t).toISOString());
+		expect(manifest.exportDay).toMatch(/^\d{4}-\d{2}-\d{2}$/);
 		const revisions = db.select().from(schema.revisions).all();
 		for (const source of manifest.sources) {
 			expect(source.included).toBe(true);
@@ -157,6 +198,10 @@ describe('a turnover set of the demo project', () => {
 					(i) => 'str' in i && i.str === `Page ${pageNo} of ${pdf.numPages}`
 				);
 				expect(footer, `footer on page ${pageNo}`).toBeDefined();
+				// Every sheet carries the key to its marks (a page read alone still explains them).
+				const words = items.map((i) => ('str' in i ? i.str.trim() : ''));
+				for (const state of JOINT_STATES)
+					expect(words, `key on page ${pageNo}`).toContain(STATE_LOOKS[state].label);
 				for (const pin of pins.filter((p) => p.pageIndex === sheet.pageIndex)) {
 					const [vx, vy] = viewport.convertToViewportPoint(pin.x, pin.y);
 					const want = { x: vx, y: vy - STAMP.labelBaseline };
@@ -214,17 +259,42 @@ describe('a turnover set of the demo project', () => {
 		expect(again.status.status).toBe('done');
 		const second = await zipOf(again.id);
 		expect(second.map((e) => e.name)).toEqual(entries.map((e) => e.name));
-		for (const name of ['marked-up-set.pdf', 'weld-log.csv', 'inspections.csv']) {
+		for (const name of entries.map((e) => e.name)) {
 			expect(sha(second.find((e) => e.name === name)!.bytes), name).toBe(
 				sha(entries.find((e) => e.name === name)!.bytes)
 			);
 		}
+		// The whole zip too: the history's SHA-256 (hashed by Node's crypto above) is the same.
+		expect(exports.fileOf(again.id).sha256).toBe(exports.fileOf(id).sha256);
 	}, 120_000);
+
+	it('dates the weld-log workbook and every part inside it on the export day', async () => {
+		const status = exports.status(id)!;
+		const exportDay = new Date(
+			`${new Date(status.startedAt!).toISOString().slice(0, 10)}T00:00:00.000Z`
+		);
+		const xlsx = entries.find((e) => e.name === 'weld-log.xlsx')!.bytes;
+		// Read back with exceljs (the registry's reader) and with yauzl, independently of the writer.
+		const workbook = new ExcelJS.Workbook();
+		await workbook.xlsx.load(xlsx as unknown as ArrayBuffer);
+		expect(workbook.created?.getTime()).toBe(exportDay.getTime());
+		expect(workbook.modified?.getTime()).toBe(exportDay.getTime());
+		expect(workbook.getWorksheet('Weld log')?.rowCount).toBeGreaterThan(1);
+		const file = path.join(config.uploadsDir, `weld-log-${id}.xlsx`);
+		fs.writeFileSync(file, xlsx);
+		const parts = await zipDates(file);
+		expect(parts.length).toBeGreaterThan(5);
+		for (const part of parts) expect(part.date, part.name).toBe(exportDay.getTime());
+		// The turnover zip's own entries carry the same date.
+		for (const part of await zipDates(storage.pathOf(exports.fileOf(id).fileKey)))
+			expect(part.date, part.name).toBe(exportDay.getTime());
+	});
 
 	it('tells the person who started it, with the link', () => {
 		const message = mail.latestTo(turnover.email);
 		expect(message?.subject).toBe('Turnover set ready: LBM-20');
 		expect(message?.text).toContain('http://tacksheet.test/api/exports/');
+		expect(message?.text).toContain(`kept for ${config.exportKeepDays} days`);
 	});
 });
 
@@ -344,6 +414,99 @@ describe('the job', () => {
 		const after = exports.status(row.id)!;
 		expect(after.status).toBe('failed');
 		expect(after.report.at(-1)).toMatch(/server stopped/);
+	});
+});
+
+describe('keeping and removing the zip', () => {
+	const DAY = 86_400_000;
+	async function smallExport(drawingIndex: number) {
+		const drawing = resolveScope(lbm, {
+			scope: { all: true },
+			includeSuperseded: false,
+			acceptedOnly: false
+		})[drawingIndex];
+		const done = await exportAndWait({
+			scope: { drawings: [drawing.id] },
+			includeSuperseded: false,
+			acceptedOnly: false
+		});
+		expect(done.status.status).toBe('done');
+		return { id: done.id, file: storage.pathOf(exports.fileOf(done.id).fileKey) };
+	}
+	const auditOf = (id: number) =>
+		db
+			.select()
+			.from(schema.auditEvents)
+			.where(eq(schema.auditEvents.entityId, String(id)))
+			.all()
+			.filter((a) => a.entity === 'export' && a.action === 'export.file.remove');
+
+	it('lets a person remove a finished zip; the record, size and SHA-256 stay', async () => {
+		const { id, file } = await smallExport(0);
+		const before = exports.status(id)!;
+		const after = await exports.removeFile(id, turnover.id);
+		expect(fs.existsSync(file)).toBe(false);
+		expect(after).toMatchObject({ status: 'done', fileUrl: undefined, bytes: before.bytes });
+		expect(after.sha256).toBe(before.sha256);
+		expect(after.removed).toMatchObject({ by: turnover.name });
+		expect(() => exports.fileOf(id)).toThrow(
+			expect.objectContaining({ status: 410, message: expect.stringMatching(/removed on/) })
+		);
+		await expect(exports.removeFile(id, turnover.id)).rejects.toMatchObject({ status: 409 });
+		const events = auditOf(id);
+		expect(events).toHaveLength(1);
+		expect(events[0]).toMatchObject({ userId: turnover.id });
+		expect(events[0].before).toMatchObject({ sha256: before.sha256, bytes: before.bytes });
+	}, 60_000);
+
+	it('refuses to remove the file of a job that has not finished', async () => {
+		const queued = exports.start(
+			lbm,
+			{ scope: { all: true }, includeSuperseded: true, acceptedOnly: true },
+			turnover.id,
+			''
+		);
+		await expect(exports.removeFile(queued.id, turnover.id)).rejects.toMatchObject({
+			status: 409
+		});
+		exports.cancel(queued.id, turnover.id);
+		await exports.whenSettled(queued.id);
+	});
+
+	it('removes zips past the keeping time, and only those, and says so in the audit', async () => {
+		const old = await smallExport(1);
+		const fresh = await smallExport(2);
+		const now = Date.now();
+		db.update(schema.exports)
+			.set({ finishedAt: now - 31 * DAY })
+			.where(eq(schema.exports.id, old.id))
+			.run();
+		// 0 keeps every zip.
+		expect((await exports.sweep(now, 0)).expired).toBe(0);
+		expect(fs.existsSync(old.file)).toBe(true);
+		const swept = await exports.sweep(now, 30);
+		expect(swept.expired).toBe(1);
+		expect(fs.existsSync(old.file)).toBe(false);
+		expect(fs.existsSync(fresh.file)).toBe(true);
+		expect(exports.status(old.id)!.removed).toMatchObject({ by: null, reason: 'kept for 30 days' });
+		expect(exports.status(fresh.id)!.fileUrl).toBeDefined();
+		expect(auditOf(old.id)[0]).toMatchObject({ userId: null });
+	}, 60_000);
+
+	it('removes a zip no export points to once it is an hour old', async () => {
+		const folder = path.join(config.uploadsDir, 'exports');
+		fs.mkdirSync(folder, { recursive: true });
+		const stale = path.join(folder, 'left-by-a-crash.zip.part');
+		const recent = path.join(folder, 'being-written.zip.part');
+		fs.writeFileSync(stale, 'x');
+		fs.writeFileSync(recent, 'x');
+		const twoHoursAgo = (Date.now() - 2 * 3_600_000) / 1000;
+		fs.utimesSync(stale, twoHoursAgo, twoHoursAgo);
+		const swept = await exports.sweep();
+		expect(swept.orphans).toBe(1);
+		expect(fs.existsSync(stale)).toBe(false);
+		expect(fs.existsSync(recent)).toBe(true);
+		fs.rmSync(recent);
 	});
 });
 

@@ -48,6 +48,25 @@ export function exportRequestFromQuery(params: URLSearchParams) {
 	});
 }
 
+/** The inverse of `exportRequestFromQuery`: the query that previews the same set again. */
+export function exportRequestToQuery(request: ExportRequest): string {
+	const params = new URLSearchParams();
+	const { scope } = request;
+	if (scope.drawings) {
+		params.set('scope', 'drawings');
+		for (const id of scope.drawings) params.append('drawing', String(id));
+	} else if (scope.area) {
+		params.set('scope', 'area');
+		params.set('area', scope.area);
+	} else if (scope.system) {
+		params.set('scope', 'system');
+		params.set('system', scope.system);
+	} else params.set('scope', 'all');
+	if (request.includeSuperseded) params.set('superseded', '1');
+	if (request.acceptedOnly) params.set('accepted', '1');
+	return `?${params}`;
+}
+
 /** The scope in words, for the cover sheet, the history and the notice. */
 export function describeScope(scope: ExportScope, drawingCount: number): string {
 	if (scope.all) return 'Whole project';

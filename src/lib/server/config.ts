@@ -9,6 +9,13 @@ function flag(value: string | undefined, fallback: boolean): boolean {
 	return !['0', 'false', 'no', 'off'].includes(value.toLowerCase());
 }
 
+/** Whole days, 0 or more; anything else falls back. */
+function days(value: string | undefined, fallback: number): number {
+	if (value === undefined || value.trim() === '') return fallback;
+	const n = Number(value);
+	return Number.isInteger(n) && n >= 0 ? n : fallback;
+}
+
 function megabytes(value: string | undefined, fallback: number): number {
 	const n = Number(value);
 	return Number.isFinite(n) && n > 0 ? n : fallback;
@@ -27,5 +34,7 @@ export const config = {
 	adminPassword: process.env.ADMIN_PASSWORD || '',
 	smtpUrl: process.env.SMTP_URL || '',
 	mailFrom: process.env.MAIL_FROM || 'Tacksheet <no-reply@tacksheet.test>',
-	uploadMaxMb: megabytes(process.env.UPLOAD_MAX_MB, 200)
+	uploadMaxMb: megabytes(process.env.UPLOAD_MAX_MB, 200),
+	/** Days a finished turnover zip is kept; 0 keeps every zip until a person removes it. */
+	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30)
 };

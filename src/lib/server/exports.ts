@@ -2,24 +2,34 @@
  * Turnover exports: a job per request, run off the request in an in-process queue, one at a
  * time. The `exports` row is the job's whole state (status, progress, the drawing it is on,
  * its report), so a page reload or a second tab reads the same picture. The heavy PDF work
- * yields to the event loop between drawings and while saving, so the server keeps answering.
+ * hands the event loop back every ~15 ms of work (between pins, sheets and footers, and while
+ * saving), so the server keeps answering. A worker thread was weighed and left out: Vite's SSR
+ * build does not bundle a `worker_threads` entry, so it would need a build step of its own.
+ *
+ * Retention: an export's row (who, when, scope, size, SHA-256 of the zip) is kept for good.
+ * Its zip is removed after `EXPORT_KEEP_DAYS`, or earlier by a person who may export; the row
+ * then keeps `status: 'done'` with no file, and the audit event of the removal says when and
+ * by whom, which is what the history shows.
  */
-import { and, desc, eq, inArray } from 'drizzle-orm';
+import fsp from 'node:fs/promises';
+import path from 'node:path';
+import { and, desc, eq, inArray, isNotNull, lt } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import * as mail from './mail';
 import * as templates from './mail-templates';
 import * as storage from './storage';
+import { config } from './config';
 import { buildPackage } from './export/package';
 import { preview, resolve, scopeKey } from './export/scope';
-import { describeScope, type ExportRequest } from '$lib/schemas/export';
+import { describeScope, exportRequestToQuery, type ExportRequest } from '$lib/schemas/export';
 
 export { preview };
 
 export class ExportError extends Error {
 	constructor(
 		message: string,
-		readonly status: 400 | 404 | 409,
+		readonly status: 400 | 404 | 409 | 410,
 		readonly exportId?: number
 	) {
 		super(message);
@@ -39,6 +49,7 @@ interface Runner {
 	origins: Map<number, string>;
 	settled: Map<number, { promise: Promise<void>; resolve: () => void }>;
 	recovered: boolean;
+	cleanup: ReturnType<typeof setInterval> | null;
 }
 
 const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetExports ??= {
@@ -46,7 +57,8 @@ const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetE
 	running: null,
 	origins: new Map(),
 	settled: new Map(),
-	recovered: false
+	recovered: false,
+	cleanup: null
 });
 
 /**
@@ -54,6 +66,7 @@ const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetE
  * per process, before this module runs any job of its own.
  */
 export function recoverInterrupted(): number {
+	runner.recovered = true;
 	const stale = db
 		.select({ id: e.id, report: e.report })
 		.from(e)
@@ -73,9 +86,9 @@ export function recoverInterrupted(): number {
 	return stale.length;
 }
 
-if (!runner.recovered) {
-	runner.recovered = true;
-	recoverInterrupted();
+/** On first use, not at import: the production build imports this module without a database. */
+function recoverOnce() {
+	if (!runner.recovered) recoverInterrupted();
 }
 
 function settledEntry(id: number) {
@@ -103,6 +116,7 @@ export function start(
 	userId: string,
 	origin: string
 ): { id: number } {
+	recoverOnce();
 	if (resolve(projectId, request).length === 0)
 		throw new ExportError(
 			'Nothing in this project matches the scope: choose other drawings, an area or a system.',
@@ -260,7 +274,8 @@ async function notify(
 				pageUrl: `${origin}/projects/${projectId}/turnover`,
 				fileUrl: `${origin}/api/exports/${id}/file`,
 				bytes: row?.bytes ?? 0,
-				leftOut: report.filter((line) => line.includes(': not included,'))
+				leftOut: report.filter((line) => line.includes(': not included,')),
+				keepDays: config.exportKeepDays
 			})
 		);
 	} catch (error) {
@@ -299,6 +314,7 @@ export function cancel(exportId: number, userId: string) {
 
 /** The public shape of a job. */
 export function status(exportId: number) {
+	recoverOnce();
 	const row = db
 		.select({
 			id: e.id,
@@ -310,6 +326,7 @@ export function status(exportId: number) {
 			scope: e.scope,
 			bytes: e.bytes,
 			sha256: e.sha256,
+			fileKey: e.fileKey,
 			createdAt: e.createdAt,
 			startedAt: e.startedAt,
 			finishedAt: e.finishedAt,
@@ -321,18 +338,22 @@ export function status(exportId: number) {
 		.where(eq(e.id, exportId))
 		.get();
 	if (!row) return undefined;
+	const { fileKey, ...shown } = row;
 	const request = requestOf(row.scope);
 	const options = [
 		request.includeSuperseded ? 'with superseded revisions' : '',
 		request.acceptedOnly ? 'accepted joints only' : ''
 	].filter(Boolean);
 	return {
-		...row,
+		...shown,
 		scopeText: [describeScope(request.scope, request.scope.drawings?.length ?? 0), ...options].join(
 			', '
 		),
 		current: row.current ?? undefined,
-		fileUrl: row.status === 'done' ? `/api/exports/${row.id}/file` : undefined
+		fileUrl: row.status === 'done' && fileKey ? `/api/exports/${row.id}/file` : undefined,
+		removed: row.status === 'done' && !fileKey ? removal(row.id) : undefined,
+		/** The turnover page's query that previews this same set again. */
+		againQuery: exportRequestToQuery(request)
 	};
 }
 
@@ -340,6 +361,7 @@ export type ExportStatus = NonNullable<ReturnType<typeof status>>;
 
 /** Past and present exports of a project, newest first. */
 export function history(projectId: number, limit = 20) {
+	recoverOnce();
 	const ids = db
 		.select({ id: e.id })
 		.from(e)
@@ -366,6 +388,13 @@ export function fileOf(exportId: number) {
 		.where(eq(e.id, exportId))
 		.get();
 	if (!row) throw new ExportError('There is no such export.', 404);
+	if (row.status === 'done' && !row.fileKey) {
+		const removed = removal(exportId);
+		throw new ExportError(
+			`The file of this export was removed${removed ? ` on ${dayOf(removed.at)}` : ''}; export the set again.`,
+			410
+		);
+	}
 	if (row.status !== 'done' || !row.fileKey)
 		throw new ExportError('This export has no file: it is not finished, or it failed.', 409);
 	const code =
@@ -377,4 +406,164 @@ export function fileOf(exportId: number) {
 		sha256: row.sha256 ?? '',
 		fileName: `${code}-turnover-set-${exportId}-${day}.zip`
 	};
+}
+
+// Retention -----------------------------------------------------------------------------------
+
+const DAY_MS = 86_400_000;
+/** How often the clean-up looks for expired zips; it is one indexed query when there are none. */
+const SWEEP_EVERY_MS = 60 * 60 * 1000;
+/** A zip no row points to (a crash mid-write) is left this long before it is removed. */
+const ORPHAN_AFTER_MS = 60 * 60 * 1000;
+const REMOVE_ACTION = 'export.file.remove';
+
+function dayOf(at: number): string {
+	return new Date(at).toISOString().slice(0, 10);
+}
+
+/** When and by whom a finished export's file was removed, from its audit event. */
+function removal(exportId: number) {
+	const row = db
+		.select({
+			at: schema.auditEvents.at,
+			by: schema.users.name,
+			byEmail: schema.users.email,
+			after: schema.auditEvents.after
+		})
+		.from(schema.auditEvents)
+		.leftJoin(schema.users, eq(schema.users.id, schema.auditEvents.userId))
+		.where(
+			and(
+				eq(schema.auditEvents.entity, 'export'),
+				eq(schema.auditEvents.entityId, String(exportId)),
+				eq(schema.auditEvents.action, REMOVE_ACTION)
+			)
+		)
+		.orderBy(desc(schema.auditEvents.id))
+		.get();
+	if (!row) return undefined;
+	const reason = (row.after as { reason?: string } | null)?.reason ?? '';
+	return { at: row.at, by: row.by ?? row.byEmail ?? null, reason };
+}
+
+/**
+ * Remove a finished export's zip and keep its record. `userId` null is the clean-up; the
+ * audit event carries the reason, the size and the SHA-256 the file had.
+ */
+async function removeStored(exportId: number, userId: string | null, reason: string) {
+	const key = db.transaction((tx) => {
+		const row = tx.select().from(e).where(eq(e.id, exportId)).get();
+		if (!row) throw new ExportError('There is no such export.', 404);
+		if ((ACTIVE as readonly string[]).includes(row.status))
+			throw new ExportError(
+				'This export is still running: cancel it instead; its partial file is never kept.',
+				409
+			);
+		if (row.status !== 'done')
+			throw new ExportError(
+				`This export ${row.status === 'failed' ? 'failed' : 'was cancelled'} and has no file.`,
+				409
+			);
+		if (!row.fileKey) {
+			const removed = removal(exportId);
+			throw new ExportError(
+				`The file of this export was already removed${removed ? ` on ${dayOf(removed.at)}` : ''}.`,
+				409
+			);
+		}
+		tx.update(e).set({ fileKey: null }).where(eq(e.id, exportId)).run();
+		audit.record(
+			{
+				action: REMOVE_ACTION,
+				entity: 'export',
+				entityId: exportId,
+				userId,
+				projectId: row.projectId,
+				before: { fileKey: row.fileKey, bytes: row.bytes, sha256: row.sha256 },
+				after: { reason }
+			},
+			tx
+		);
+		return row.fileKey;
+	});
+	// The record says removed either way; a file that cannot be removed now is an orphan the
+	// next clean-up removes.
+	await storage.remove(key).catch((error) => console.error(`Export ${exportId}:`, error));
+}
+
+/** A person removes a finished export's zip ahead of time; the record stays. */
+export async function removeFile(exportId: number, userId: string) {
+	await removeStored(exportId, userId, 'removed by a person');
+	return status(exportId)!;
+}
+
+/**
+ * Remove zips kept longer than `keepDays` (0: none), and zips no export row points to (left by
+ * a crash while one was written) once they are an hour old and no job is running. Never
+ * touches a queued or running job: those have no `fileKey` until they are done.
+ */
+export async function sweep(now = Date.now(), keepDays = config.exportKeepDays) {
+	let expired = 0;
+	if (keepDays > 0) {
+		const due = db
+			.select({ id: e.id })
+			.from(e)
+			.where(
+				and(eq(e.status, 'done'), isNotNull(e.fileKey), lt(e.finishedAt, now - keepDays * DAY_MS))
+			)
+			.all();
+		for (const row of due) {
+			try {
+				await removeStored(row.id, null, `kept for ${keepDays} day${keepDays === 1 ? '' : 's'}`);
+				expired++;
+			} catch (error) {
+				// Removed by a person meanwhile: nothing left to do.
+				if (!(error instanceof ExportError)) throw error;
+			}
+		}
+	}
+	let orphans = 0;
+	if (runner.running === null && runner.queue.length === 0) {
+		const folder = storage.pathOf('exports/x');
+		const known = new Set(
+			db
+				.select({ key: e.fileKey })
+				.from(e)
+				.where(isNotNull(e.fileKey))
+				.all()
+				.map((row) => row.key)
+		);
+		const names = await fsp.readdir(path.dirname(folder)).catch(() => [] as string[]);
+		for (const name of names) {
+			const key = `exports/${name}`;
+			if (known.has(key)) continue;
+			const stat = await fsp.stat(storage.pathOf(key)).catch(() => null);
+			if (!stat?.isFile() || now - stat.mtimeMs < ORPHAN_AFTER_MS) continue;
+			await storage.remove(key);
+			audit.record({
+				action: 'export.file.orphan',
+				entity: 'export',
+				after: { file: key, bytes: stat.size }
+			});
+			orphans++;
+		}
+	}
+	return { expired, orphans };
+}
+
+/** Clean up now and then every hour, once per process; the timer never holds the process. */
+export function startCleanup() {
+	if (runner.cleanup) return;
+	const run = () =>
+		sweep()
+			.then(({ expired, orphans }) => {
+				if (expired + orphans > 0)
+					console.log(
+						`Tacksheet: removed ${expired} expired turnover zip(s), ${orphans} orphan(s).`
+					);
+			})
+			.catch((error) => console.error('Turnover clean-up:', error));
+	void run();
+	runner.cleanup = setInterval(run, SWEEP_EVERY_MS);
+	runner.cleanup.unref();
 }

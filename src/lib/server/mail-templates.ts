@@ -122,6 +122,8 @@ export function turnoverReady(
 		bytes: number;
 		/** Report lines of revisions that could not be included. */
 		leftOut: string[];
+		/** Days the zip is kept (EXPORT_KEEP_DAYS); 0 keeps it until a person removes it. */
+		keepDays: number;
 	}
 ): Message {
 	const megabytes = (set.bytes / 1024 / 1024).toFixed(1);
@@ -136,7 +138,7 @@ export function turnoverReady(
 						...set.leftOut
 					]
 				: []),
-			`The download asks you to sign in. Past exports are listed at ${set.pageUrl}.`
+			`The download asks you to sign in.${set.keepDays > 0 ? ` The zip is kept for ${set.keepDays} day${set.keepDays === 1 ? '' : 's'}; its record stays after that.` : ''} Past exports are listed at ${set.pageUrl}.`
 		],
 		{ label: 'Download the turnover set', url: set.fileUrl }
 	);

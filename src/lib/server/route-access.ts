@@ -145,7 +145,10 @@ export const ROUTES: Record<string, RouteRules> = {
 		GET: project('project.export'),
 		DELETE: project('project.export')
 	},
-	'/api/exports/[exportId=id]/file': { GET: project('project.export') },
+	'/api/exports/[exportId=id]/file': {
+		GET: project('project.export'),
+		DELETE: project('project.export')
+	},
 	'/api/projects/[projectId=id]/criteria-sets': {
 		GET: project('project.read'),
 		POST: project('criteria.manage')

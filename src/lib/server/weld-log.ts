@@ -349,16 +349,22 @@ export async function writeCsv(
 	await once(writable, 'finish');
 }
 
-/** An Excel workbook of one sheet, each row committed (and so flushed) as it is written. */
+/**
+ * An Excel workbook of one sheet, each row committed (and so flushed) as it is written.
+ * With `fixedDate`, the workbook's created and modified dates are that date instead of now
+ * (turnover sets, which need the same bytes for unchanged rows).
+ */
 export async function writeXlsx(
 	rows: Iterable<WeldLogRow>,
 	writable: Writable,
-	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS
+	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS,
+	{ fixedDate }: { fixedDate?: Date } = {}
 ): Promise<void> {
 	const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({
 		stream: writable,
 		useStyles: true,
-		useSharedStrings: false
+		useSharedStrings: false,
+		...(fixedDate ? { created: fixedDate, modified: fixedDate } : {})
 	});
 	const sheet = workbook.addWorksheet('Weld log', { views: [{ state: 'frozen', ySplit: 1 }] });
 	sheet.columns = columns.map((c) => ({
@@ -371,7 +377,7 @@ export async function writeXlsx(
 	for (const row of rows) {
 		sheet.addRow(columns.map((c) => c.value(row))).commit();
 		// Let the zip stream drain now and then; the rows themselves come synchronously.
-		if (++n % 1000 === 0) await new Promise((resolve) => setImmediate(resolve));
+		if (++n % 200 === 0) await new Promise((resolve) => setImmediate(resolve));
 	}
 	sheet.commit();
 	await workbook.commit();

@@ -199,7 +199,7 @@ export function drawCover(
 		y -= 13;
 	}
 	first.drawText(
-		'Verdicts in Tacksheet are an aid. Acceptance rests with a qualified inspector under the code and contract in force.',
+		'Verdicts in Tacksheet are an aid. Acceptance rests with a qualified inspector under the code, edition and contract in force.',
 		{ x: m, y: m + 14, size: 7.5, font: fonts.regular, color: MUTED }
 	);
 

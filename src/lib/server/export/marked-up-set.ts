@@ -14,7 +14,7 @@ import {
 	type PDFPage
 } from 'pdf-lib';
 import fontkit from '@pdf-lib/fontkit';
-import { STATE_LOOKS, type JointState } from '$lib/joint-state';
+import { JOINT_STATES, STATE_LOOKS, type JointState } from '$lib/joint-state';
 import {
 	STAMP,
 	normaliseRotation,
@@ -107,7 +107,7 @@ function shownRect(
 	});
 }
 
-function stampPin(page: PDFPage, box: SheetBox, pin: StampPin, fonts: Fonts) {
+function stampMark(page: PDFPage, box: SheetBox, pin: StampPin) {
 	const look = STATE_LOOKS[pin.state];
 	if (pin.needsReview) {
 		page.drawSvgPath(REVIEW_RING, {
@@ -121,8 +121,13 @@ function stampPin(page: PDFPage, box: SheetBox, pin: StampPin, fonts: Fonts) {
 		});
 	}
 	drawGlyph(page, pin.state, pin.x, pin.y, STAMP.glyphScale, box.rotation);
+}
 
-	// The number sits above the glyph, centred on the pin's x in the shown frame.
+/**
+ * The number sits above the glyph, centred on the pin's x in the shown frame. Numbers are
+ * drawn after every mark of the sheet, so a neighbouring joint's glyph never hides one.
+ */
+function stampLabel(page: PDFPage, box: SheetBox, pin: StampPin, fonts: Fonts) {
 	const size = STAMP.labelSize;
 	const width = fonts.semibold.widthOfTextAtSize(pin.label, size);
 	const halo = turn(box.rotation, -width / 2 - 1.4, STAMP.labelBaseline - 1.6);
@@ -166,6 +171,36 @@ interface FooterFacts {
 	left: string;
 	centre: string;
 	superseded: boolean;
+	/** A sheet's footer carries the key to its marks, so a page read alone still explains them. */
+	legend?: boolean;
+}
+
+const LEGEND = { glyphScale: 0.34, size: 6.5, gap: 9 } as const;
+
+/** Width of the footer's key: each state's glyph and label, in the order of the cover's legend. */
+function legendWidth(fonts: Fonts): number {
+	return JOINT_STATES.reduce(
+		(sum, state) =>
+			sum +
+			10 +
+			fonts.regular.widthOfTextAtSize(STATE_LOOKS[state].label, LEGEND.size) +
+			LEGEND.gap,
+		0
+	);
+}
+
+function footerLegend(page: PDFPage, box: SheetBox, u: number, fonts: Fonts) {
+	for (const state of JOINT_STATES) {
+		const at = shownToUser(box, u + 4, STAMP.footerHeight / 2);
+		drawGlyph(page, state, at.x, at.y, LEGEND.glyphScale, box.rotation);
+		const label = STATE_LOOKS[state].label;
+		shownText(page, box, label, u + 10, 5.4, {
+			font: fonts.regular,
+			size: LEGEND.size,
+			color: INK
+		});
+		u += 10 + fonts.regular.widthOfTextAtSize(label, LEGEND.size) + LEGEND.gap;
+	}
 }
 
 function footer(
@@ -189,13 +224,23 @@ function footer(
 		color: facts.superseded ? SUPERSEDED : INK
 	});
 	const centreWidth = fonts.regular.widthOfTextAtSize(facts.centre, size);
-	shownText(page, box, facts.centre, (width - centreWidth) / 2, base, {
-		font: fonts.regular,
-		size,
-		color: MUTED
-	});
 	const right = `Page ${pageNo} of ${total}`;
 	const rightWidth = fonts.semibold.widthOfTextAtSize(right, size);
+	// With the key: [drawing, rev, sheet] [key …] [set, date] [page]; without (narrow sheets,
+	// where the key would not fit), the set and date are centred and the cover holds the key.
+	const leftEnd = 10 + fonts.semibold.widthOfTextAtSize(left, size) + 14;
+	const keyWidth = facts.legend ? legendWidth(fonts) : 0;
+	const withKey =
+		facts.legend && leftEnd + keyWidth + 14 + centreWidth + 14 + rightWidth + 10 <= width;
+	if (withKey) footerLegend(page, box, leftEnd, fonts);
+	shownText(
+		page,
+		box,
+		facts.centre,
+		withKey ? width - 10 - rightWidth - 14 - centreWidth : (width - centreWidth) / 2,
+		base,
+		{ font: fonts.regular, size, color: MUTED }
+	);
 	shownText(page, box, right, width - 10 - rightWidth, base, {
 		font: fonts.semibold,
 		size,
@@ -217,6 +262,19 @@ function problemOf(error: unknown): string {
 }
 
 const yieldToServer = () => new Promise<void>((resolve) => setImmediate(resolve));
+
+/**
+ * Hands the event loop back once `budgetMs` of work has gone by since the last time, so the
+ * server keeps answering however dense a sheet is; between those moments it costs a clock read.
+ */
+function pacer(budgetMs = 15) {
+	let since = performance.now();
+	return async () => {
+		if (performance.now() - since < budgetMs) return;
+		await yieldToServer();
+		since = performance.now();
+	};
+}
 
 // The set -----------------------------------------------------------------------------------
 
@@ -241,6 +299,7 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 	const entries: IndexEntry[] = [];
 	const metas: SheetMeta[] = [];
 	const centre = `Turnover set · ${input.cover.projectCode} · exported ${input.cover.exportDay}`;
+	const pace = pacer();
 
 	for (const [i, { drawing, revision }] of revisions.entries()) {
 		input.checkpoint();
@@ -259,6 +318,7 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 				updateMetadata: false,
 				parseSpeed: ParseSpeeds.Fast
 			});
+			await pace();
 			const available = source.getPageCount();
 			const wanted = revision.sheets.map((s) => s.pageIndex);
 			if (wanted.length === 0 || wanted.some((index) => index >= available))
@@ -280,10 +340,15 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 				y1: sheet.y1,
 				rotation: normaliseRotation(page.getRotation().angle)
 			};
-			for (const pin of pins) {
-				if (pin.pageIndex !== sheet.pageIndex) continue;
-				stampPin(page, box, pin, fonts);
+			const onSheet = pins.filter((pin) => pin.pageIndex === sheet.pageIndex);
+			for (const pin of onSheet) {
+				stampMark(page, box, pin);
+				await pace();
+			}
+			for (const pin of onSheet) {
+				stampLabel(page, box, pin, fonts);
 				entry.pins++;
+				await pace();
 			}
 			if (revision.status === 'superseded') {
 				supersededMark(
@@ -298,11 +363,11 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 				footer: {
 					left: `${drawing.number} · Rev ${revision.label} · sheet ${sheet.pageIndex + 1} of ${revision.sheets.length}`,
 					centre,
-					superseded: revision.status === 'superseded'
+					superseded: revision.status === 'superseded',
+					legend: true
 				}
 			});
-			// A sheet at a time, so a drawing of many busy sheets never holds the event loop.
-			await yieldToServer();
+			await pace();
 		}
 	}
 	input.checkpoint();
@@ -327,10 +392,10 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 		)
 	);
 	const pages = out.getPages();
-	// Footers cost a few milliseconds a page: hand the event loop back every few pages.
+	// Footers cost a few milliseconds a page: hand the event loop back as the budget runs out.
 	for (const [i, meta] of metas.entries()) {
 		footer(pages[coverCount + i], meta.box, meta.footer, coverCount + i + 1, total, fonts);
-		if (i % 10 === 9) await yieldToServer();
+		await pace();
 	}
 
 	// Without object streams the writer has no large block to deflate in one go, so its

@@ -3,11 +3,14 @@
  * records and a manifest with the SHA-256 of every file and of every source revision.
  *
  * Determinism: for unchanged data, the same scope and options, the same person and the same
- * UTC export day, `marked-up-set.pdf`, `weld-log.csv` and `inspections.csv` are byte for byte
- * the same, and the zip holds its entries in the same order with the same entry dates (the
- * export day, 00:00 UTC). `manifest.json` differs only in `exportedAt` and `exportId`.
- * `weld-log.xlsx` holds the same cells, but the spreadsheet writer stamps its own creation
- * time inside the workbook, so its bytes differ from run to run.
+ * UTC export day, every file and the zip itself are byte for byte the same: the zip holds its
+ * entries in a fixed order, every date inside the set (PDF info, workbook properties, the
+ * parts of the workbook, the zip entries) is the export day at 00:00 UTC, and the manifest
+ * carries no export id or clock time of the export; its time is `recordsAsOf`, the newest
+ * record behind the set, which changes only when the data does. The export day is the date the cover prints; the exact
+ * time, the person and the export id stay in the export's history record beside the zip's
+ * SHA-256, so two sets of the same data can be told apart by their record and recognised as
+ * the same by their hash.
  */
 import fs from 'node:fs';
 import fsp from 'node:fs/promises';
@@ -22,7 +25,7 @@ import * as joints from '../joints';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
 import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
-import { preview, resolve } from './scope';
+import { preview, recordsAsOf, resolve } from './scope';
 
 export interface PackageJob {
 	exportId: number;
@@ -61,6 +64,10 @@ function reportLine(entry: IndexEntry): string {
 	const name = `${entry.drawing} rev ${entry.revision}${entry.status === 'superseded' ? ' (superseded)' : ''}`;
 	if (entry.problem) return `${name}: not included, ${entry.problem}.`;
 	return `${name}: ${entry.sheets} sheet${entry.sheets === 1 ? '' : 's'}, ${entry.pins} pin${entry.pins === 1 ? '' : 's'} stamped.`;
+}
+
+function asOfTime(ms: number | null): string | null {
+	return ms === null ? null : new Date(ms).toISOString();
 }
 
 /** The share of the job the sheets take; the records and the zip share the rest. */
@@ -135,7 +142,7 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		rows.push(row);
 		if (rows.length % 500 === 0) await new Promise<void>((r) => setImmediate(r));
 	}
-	const xlsx = await weldLogXlsx(rows);
+	const xlsx = await weldLogXlsx(rows, fixedDate);
 	const csv = await weldLogCsv(rows);
 	job.checkpoint();
 	job.onProgress(0.92, 'Inspection records');
@@ -151,7 +158,6 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	const problems = set.entries.filter((e) => e.problem);
 	const manifest = {
 		format: 'tacksheet-turnover-set/1',
-		exportId: job.exportId,
 		project: { code: project.code, name: project.name, client: project.client },
 		scope: {
 			description: scopeText,
@@ -159,12 +165,12 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 			includeSuperseded: job.request.includeSuperseded,
 			acceptedOnly: job.request.acceptedOnly
 		},
-		exportedAt: new Date().toISOString(),
 		exportDay,
+		recordsAsOf: asOfTime(recordsAsOf(drawings.map((d) => d.id))),
 		exportedBy: job.requestedBy,
 		app: { name: 'tacksheet', version: appVersion() },
 		determinism:
-			'For unchanged data, scope, options, person and UTC export day, every file but this manifest and weld-log.xlsx is byte-identical; this manifest differs in exportedAt and exportId only.',
+			'For unchanged data, scope, options, person and UTC export day, every file and the zip itself are byte-identical; every date inside the set is the export day, 00:00 UTC.',
 		counts: { ...facts, joints: facts.joints },
 		pages: set.pageCount,
 		files: files.map((f) => ({ name: f.name, bytes: f.bytes.byteLength, sha256: sha256(f.bytes) })),

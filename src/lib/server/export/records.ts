@@ -10,6 +10,7 @@ import { weldLogFilter } from '$lib/schemas/weld-log';
 import { displayWeldNumber } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
+import { withEntryDates } from './zip-dates';
 
 /** Collects what a writer streams, for a zip entry whose hash goes into the manifest. */
 export async function collect(write: (writable: Writable) => Promise<void>): Promise<Buffer> {
@@ -48,8 +49,16 @@ export async function weldLogCsv(rows: Iterable<weldLog.WeldLogRow>): Promise<Bu
 	return collect((w) => weldLog.writeCsv(rows, w));
 }
 
-export async function weldLogXlsx(rows: Iterable<weldLog.WeldLogRow>): Promise<Buffer> {
-	return collect((w) => weldLog.writeXlsx(rows, w));
+/**
+ * The workbook dated `fixedDate` throughout (its properties and every part in its zip), so
+ * unchanged rows give the same bytes.
+ */
+export async function weldLogXlsx(
+	rows: Iterable<weldLog.WeldLogRow>,
+	fixedDate: Date
+): Promise<Buffer> {
+	const bytes = await collect((w) => weldLog.writeXlsx(rows, w, undefined, { fixedDate }));
+	return withEntryDates(bytes, fixedDate);
 }
 
 // inspections.csv ---------------------------------------------------------------------------

@@ -231,3 +231,27 @@ export function choices(projectId: number) {
 		.orderBy(asc(d.number))
 		.all();
 }
+
+/**
+ * The time of the newest record behind the drawings in scope (a joint or pin changed, a weld or
+ * an inspection recorded), in UTC milliseconds; null when they hold no joint. The set shows the
+ * records as of then, and the value stays the same while they do not change.
+ */
+export function recordsAsOf(drawingIds: readonly number[]): number | null {
+	if (drawingIds.length === 0) return null;
+	const ids = `(${drawingIds.map(Number).join(',')})`;
+	const row = db.$client
+		.prepare(
+			`select max(t) as t from (
+				select max(j.updated_at) as t from joints j where j.drawing_id in ${ids}
+				union all select max(p.updated_at) from pins p
+					join joints j on j.id = p.joint_id where j.drawing_id in ${ids}
+				union all select max(w.recorded_at) from welds w
+					join joints j on j.id = w.joint_id where j.drawing_id in ${ids}
+				union all select max(i.inspected_at) from inspections i
+					join joints j on j.id = i.joint_id where j.drawing_id in ${ids}
+			)`
+		)
+		.get() as { t: number | null };
+	return row.t;
+}

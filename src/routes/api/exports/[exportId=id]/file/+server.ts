@@ -1,4 +1,5 @@
 import { Readable } from 'node:stream';
+import { json } from '@sveltejs/kit';
 import * as exports from '$lib/server/exports';
 import * as storage from '$lib/server/storage';
 import { exportErrorResponse } from '$lib/server/export-errors';
@@ -23,4 +24,16 @@ export const GET: RequestHandler = ({ params }) => {
 			'x-content-type-options': 'nosniff'
 		}
 	});
+};
+
+/**
+ * Remove the zip of a finished export ahead of `EXPORT_KEEP_DAYS`; its record, size and
+ * SHA-256 stay in the history. A running export answers 409 (cancel it instead).
+ */
+export const DELETE: RequestHandler = async ({ params, locals }) => {
+	try {
+		return json(await exports.removeFile(Number(params.exportId), locals.user!.id));
+	} catch (error) {
+		return exportErrorResponse(error);
+	}
 };
