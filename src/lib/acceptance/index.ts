@@ -1,6 +1,6 @@
 /**
  * The acceptance engine: pure, shared by the browser (live verdict) and the server (stored verdict).
- * Verdicts are an aid; acceptance rests with a qualified inspector under the code and contract in force.
+ * Verdicts are an aid; acceptance rests with a qualified inspector under the code, edition and contract in force.
  */
 import { deriveCriteriaSet as derive, type CriteriaSetChanges } from './derive';
 import { api1104 } from './sets/api-1104';
@@ -11,7 +11,7 @@ import { iso5817B, iso5817C, iso5817D } from './sets/iso-5817';
 import type { CriteriaSet } from './types';
 
 export const acceptanceNotice =
-	'The verdict is an aid: acceptance rests with a qualified inspector under the code and contract in force.';
+	'The verdict is an aid: acceptance rests with a qualified inspector under the code, edition and contract in force.';
 
 /** Built-in sets, in the order a picker lists them. */
 export const criteriaSets: readonly CriteriaSet[] = [
