@@ -13,11 +13,10 @@ import * as criteriaSets from '$lib/server/criteria-sets';
 import * as inspections from '$lib/server/inspections';
 import * as joints from '$lib/server/joints';
 import * as users from '$lib/server/users';
-import * as welds from '$lib/server/welds';
 import { ruleFor } from '$lib/server/route-access';
 import { can } from '$lib/permissions';
 import { evaluate, getCriteriaSet, ruleWords, type CriteriaSet } from '$lib/acceptance';
-import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
+import { recordInspectionSchema } from '$lib/schemas/inspection';
 import { criteriaSetSchema } from '$lib/schemas/criteria-set';
 import type { JointFields } from '$lib/schemas/joint';
 import {
@@ -27,6 +26,7 @@ import {
 import { GET as getSet } from '../../src/routes/api/projects/[projectId=id]/criteria-sets/[setId]/+server';
 import { POST as evaluatePost } from '../../src/routes/api/acceptance/evaluate/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { weldJoint } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -70,22 +70,6 @@ function newJoint(fields: Partial<JointFields> = {}) {
 	).joint;
 }
 
-let stamps = 0;
-function newWelder() {
-	const stamp = `CS${++stamps}`;
-	const id = db
-		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Criteria test welder ${stamp}` })
-		.returning()
-		.get().id;
-	for (const process of ['GTAW', 'SMAW']) {
-		db.insert(schema.welderQualifications)
-			.values({ welderId: id, process, qualifiedOn: '2025-01-06', lastUsedOn: '2025-05-01' })
-			.run();
-	}
-	return stamp;
-}
-
 const CLEAN = {
 	reinforcement: '1/16',
 	porosity: '0',
@@ -107,15 +91,7 @@ function weldedJoint(criteriaSetId: string) {
 		}),
 		inspectorId
 	);
-	const stamp = newWelder();
-	welds.record(
-		joint.id,
-		recordWeldSchema.parse({
-			weldedOn: '2025-06-02',
-			welders: { root: stamp, fill: stamp, cap: stamp }
-		}),
-		{ id: foremanId, isAdmin: false }
-	);
+	weldJoint(projectId, joint.id, foremanId);
 	return joint;
 }
 

@@ -10,17 +10,17 @@ import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
-import * as welds from '$lib/server/welds';
 import * as audit from '$lib/server/audit';
 import * as users from '$lib/server/users';
 import { ruleFor } from '$lib/server/route-access';
 import { can } from '$lib/permissions';
 import { deriveJointState } from '$lib/joint-state';
-import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
+import { recordInspectionSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import { POST as postCutOut } from '../../src/routes/api/joints/[jointId=id]/cut-out/+server';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { weldJoint } from '../fixtures/welders';
 import { countsTable, directCounts } from '../fixtures/state-counts';
 
 type Handler = (event: never) => Response | Promise<Response>;
@@ -69,33 +69,8 @@ function newJoint(fields: Partial<JointFields> = {}, number?: string) {
 	).joint;
 }
 
-let stamps = 0;
-function newWelder() {
-	const stamp = `CO${++stamps}`;
-	const id = db
-		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Test welder ${stamp}` })
-		.returning()
-		.get().id;
-	for (const process of ['GTAW', 'SMAW']) {
-		db.insert(schema.welderQualifications)
-			.values({ welderId: id, process, qualifiedOn: '2025-01-06', lastUsedOn: '2025-05-01' })
-			.run();
-	}
-	return stamp;
-}
-
 const inspect = (jointId: number, body: unknown) =>
 	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
-
-function weld(jointId: number, weldedOn = '2025-06-02') {
-	const stamp = newWelder();
-	return welds.record(
-		jointId,
-		recordWeldSchema.parse({ weldedOn, welders: { root: stamp, fill: stamp, cap: stamp } }),
-		{ id: foremanId, isAdmin: false }
-	);
-}
 
 const FITUP = { rootOpening: '1/8', bevelAngle: '37-1/2°', rootFace: '1/16', misalignment: '1/32' };
 const CLEAN = {
@@ -114,7 +89,7 @@ const OUTSIDE = { ...CLEAN, undercutDepth: '1/16' };
 function jointInRepair(fields: Partial<JointFields> = {}, number?: string) {
 	const joint = newJoint(fields, number);
 	inspect(joint.id, { stage: 'fitup', readings: FITUP, decision: 'accept' });
-	weld(joint.id);
+	weldJoint(projectId, joint.id, foremanId);
 	const rejected = inspect(joint.id, { stage: 'visual', readings: OUTSIDE, decision: 'reject' });
 	expect(rejected.joint.state).toBe('repair');
 	return joints.row(joint.id)!;
@@ -271,7 +246,7 @@ describe('cutting out a joint', () => {
 		expect(first.joint.number).toBe(`${base}N2`);
 
 		inspect(first.joint.id, { stage: 'fitup', readings: FITUP, decision: 'accept' });
-		weld(first.joint.id, '2025-06-09');
+		weldJoint(projectId, first.joint.id, foremanId, '2025-06-09');
 		const rejected = inspect(first.joint.id, {
 			stage: 'visual',
 			readings: OUTSIDE,

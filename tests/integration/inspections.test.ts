@@ -9,13 +9,12 @@ import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
-import * as welds from '$lib/server/welds';
 import * as events from '$lib/server/events';
 import * as users from '$lib/server/users';
 import { ruleFor } from '$lib/server/route-access';
 import { can } from '$lib/permissions';
 import { deriveJointState } from '$lib/joint-state';
-import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
+import { recordInspectionSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import {
 	GET as listInspections,
@@ -26,6 +25,7 @@ import {
 	POST as postWeld
 } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { qualifiedWelder, weldJoint } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -66,34 +66,8 @@ function newJoint(fields: Partial<JointFields> = {}) {
 	).joint;
 }
 
-let stamps = 0;
-/** A welder of the project qualified GTAW and SMAW, last used well inside six months. */
-function newWelder() {
-	const stamp = `IT${++stamps}`;
-	const id = db
-		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Test welder ${stamp}` })
-		.returning()
-		.get().id;
-	for (const process of ['GTAW', 'SMAW']) {
-		db.insert(schema.welderQualifications)
-			.values({ welderId: id, process, qualifiedOn: '2025-01-06', lastUsedOn: '2025-05-01' })
-			.run();
-	}
-	return stamp;
-}
-
 const inspect = (jointId: number, body: unknown) =>
 	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
-
-function weld(jointId: number, weldedOn = '2025-06-02') {
-	const stamp = newWelder();
-	return welds.record(
-		jointId,
-		recordWeldSchema.parse({ weldedOn, welders: { root: stamp, fill: stamp, cap: stamp } }),
-		{ id: foremanId, isAdmin: false }
-	);
-}
 
 /** The cached state column says what the records say. */
 function expectCacheAgrees(jointId: number) {
@@ -182,8 +156,8 @@ describe('a joint from fit-up to acceptance, through the API', () => {
 		expect(fitup.body.joint).toMatchObject({ state: 'ready_to_weld', stateLabel: 'Ready to weld' });
 		expect(step(fitup).state).toBe('ready_to_weld');
 
-		const root = newWelder();
-		const fill = newWelder();
+		const root = qualifiedWelder(projectId);
+		const fill = qualifiedWelder(projectId);
 		const first = await call(postWeld, joint.id, foremanId, {
 			weldedOn: '2025-06-02',
 			welders: { root, fill, cap: fill }
@@ -296,7 +270,7 @@ describe('the verdict is the server own, and a decision against it needs a reaso
 	function weldedJoint() {
 		const joint = newJoint();
 		inspect(joint.id, { stage: 'fitup', readings: FITUP, decision: 'accept' });
-		weld(joint.id);
+		weldJoint(projectId, joint.id, foremanId);
 		return joint;
 	}
 
@@ -410,7 +384,7 @@ describe('corrections are new rows that supersede', () => {
 	it('replaces a visual result, keeps both in the history, and refuses a second correction of it', () => {
 		const joint = newJoint();
 		inspect(joint.id, { stage: 'fitup', readings: FITUP, decision: 'accept' });
-		weld(joint.id);
+		weldJoint(projectId, joint.id, foremanId);
 		const original = inspect(joint.id, { stage: 'visual', readings: WITHIN, decision: 'accept' });
 		expect(original.joint.state).toBe('accepted');
 
@@ -511,7 +485,7 @@ describe('stage order', () => {
 			{ stage: 'nde', method: 'RT', decision: 'accept' },
 			/has not been welded yet: the foreman records the weld/
 		);
-		weld(joint.id);
+		weldJoint(projectId, joint.id, foremanId);
 		await refuse(
 			{ stage: 'fitup', readings: FITUP, decision: 'accept' },
 			/already welded .*fit-up is inspected before welding/
@@ -529,7 +503,7 @@ describe('stage order', () => {
 			{ stage: 'visual', readings: WITHIN, decision: 'accept' },
 			new RegExp(`repair weld \\(${joint.number}-R1\\) comes next`)
 		);
-		weld(joint.id, '2025-06-05');
+		weldJoint(projectId, joint.id, foremanId, '2025-06-05');
 		inspect(joint.id, { stage: 'visual', readings: WITHIN, decision: 'accept' });
 		await refuse({ stage: 'nde', method: 'UT', decision: 'accept' }, /UT is not asked of joint/);
 		const rt = inspect(joint.id, { stage: 'nde', method: 'RT', decision: 'accept' });
