@@ -56,6 +56,8 @@ export interface WeldLogColumn {
 	shown: boolean;
 	/** The `sort` value of the API that orders by this column, if any. */
 	sort?: WeldLogSort;
+	/** Width in characters in the Excel workbook, where the header's own is too narrow. */
+	width?: number;
 }
 
 export const WELD_LOG_SORTS = ['drawing', 'number', 'state', 'age', 'weldedOn', 'area'] as const;
@@ -70,23 +72,31 @@ const result = (decision: Decision | null) =>
 	decision === 'accept' ? 'Accept' : decision === 'reject' ? 'Reject' : '';
 
 export const COLUMNS: readonly WeldLogColumn[] = [
-	{ id: 'drawing', header: 'Drawing', value: (r) => r.drawing, shown: true, sort: 'drawing' },
+	{
+		id: 'drawing',
+		header: 'Drawing',
+		value: (r) => r.drawing,
+		shown: true,
+		width: 18,
+		sort: 'drawing'
+	},
 	{ id: 'revision', header: 'Rev', value: (r) => r.revision ?? '', shown: true },
 	{ id: 'weldNumber', header: 'Weld no.', value: (r) => r.weldNumber, shown: true, sort: 'number' },
 	{ id: 'kind', header: 'Kind', value: (r) => r.kind, shown: true },
 	{ id: 'location', header: 'Shop / field', value: (r) => r.location, shown: false },
 	{ id: 'size', header: 'Size', value: (r) => r.size, shown: true },
 	{ id: 'thickness', header: 'Thickness', value: (r) => r.thickness, shown: false },
-	{ id: 'material', header: 'Material', value: (r) => r.material, shown: false },
-	{ id: 'wps', header: 'WPS', value: (r) => r.wps, shown: false },
-	{ id: 'line', header: 'Line', value: (r) => r.line, shown: false },
+	{ id: 'material', header: 'Material', value: (r) => r.material, shown: false, width: 16 },
+	{ id: 'wps', header: 'WPS', value: (r) => r.wps, shown: false, width: 22 },
+	{ id: 'line', header: 'Line', value: (r) => r.line, shown: false, width: 18 },
 	{ id: 'area', header: 'Area', value: (r) => r.area, shown: true, sort: 'area' },
-	{ id: 'system', header: 'System', value: (r) => r.system, shown: false },
+	{ id: 'system', header: 'System', value: (r) => r.system, shown: false, width: 12 },
 	{
 		id: 'state',
 		header: 'State',
 		value: (r) => STATE_LOOKS[r.state].label,
 		shown: true,
+		width: 16,
 		sort: 'state'
 	},
 	{
@@ -94,43 +104,66 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 		header: 'In state since',
 		value: (r) => utcDay(r.stateSince),
 		shown: true,
+		width: 13,
 		sort: 'age'
 	},
-	{ id: 'rootWelders', header: 'Root welder', value: (r) => r.rootWelders.join(' '), shown: true },
+	{
+		id: 'rootWelders',
+		header: 'Root welder',
+		value: (r) => r.rootWelders.join(' '),
+		shown: true,
+		width: 12
+	},
 	{
 		id: 'fillCapWelders',
 		header: 'Fill / cap welder',
 		value: (r) => r.fillCapWelders.join(' '),
-		shown: false
+		shown: false,
+		width: 16
 	},
 	{
 		id: 'weldedOn',
 		header: 'Welded',
 		value: (r) => r.weldedOn ?? '',
 		shown: true,
+		width: 12,
 		sort: 'weldedOn'
 	},
-	{ id: 'fitupAt', header: 'Fit-up date', value: (r) => utcDay(r.fitupAt), shown: false },
+	{
+		id: 'fitupAt',
+		header: 'Fit-up date',
+		value: (r) => utcDay(r.fitupAt),
+		shown: false,
+		width: 12
+	},
 	{
 		id: 'fitupInspector',
 		header: 'Fit-up inspector',
 		value: (r) => r.fitupInspector ?? '',
-		shown: false
+		shown: false,
+		width: 18
 	},
 	{ id: 'fitupResult', header: 'Fit-up', value: (r) => result(r.fitupResult), shown: true },
-	{ id: 'visualAt', header: 'Visual date', value: (r) => utcDay(r.visualAt), shown: false },
+	{
+		id: 'visualAt',
+		header: 'Visual date',
+		value: (r) => utcDay(r.visualAt),
+		shown: false,
+		width: 12
+	},
 	{
 		id: 'visualInspector',
 		header: 'Visual inspector',
 		value: (r) => r.visualInspector ?? '',
-		shown: false
+		shown: false,
+		width: 18
 	},
 	{ id: 'visualResult', header: 'Visual', value: (r) => result(r.visualResult), shown: true },
 	{ id: 'ndeRequired', header: 'NDE required', value: (r) => r.ndeRequired, shown: false },
 	{ id: 'ndeMethods', header: 'NDE done', value: (r) => r.ndeMethods, shown: false },
-	{ id: 'ndeReports', header: 'NDE report', value: (r) => r.ndeReports, shown: false },
+	{ id: 'ndeReports', header: 'NDE report', value: (r) => r.ndeReports, shown: false, width: 16 },
 	{ id: 'ndeResult', header: 'NDE', value: (r) => result(r.ndeResult), shown: true },
-	{ id: 'ndeAt', header: 'NDE date', value: (r) => utcDay(r.ndeAt), shown: false },
+	{ id: 'ndeAt', header: 'NDE date', value: (r) => utcDay(r.ndeAt), shown: false, width: 12 },
 	{
 		id: 'againstVerdict',
 		header: 'Against verdict',
@@ -138,5 +171,11 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 		shown: true
 	},
 	{ id: 'repairCount', header: 'Repairs', value: (r) => r.repairCount, shown: false },
-	{ id: 'voidReason', header: 'Void reason', value: (r) => r.voidReason ?? '', shown: false }
+	{
+		id: 'voidReason',
+		header: 'Void reason',
+		value: (r) => r.voidReason ?? '',
+		shown: false,
+		width: 40
+	}
 ];

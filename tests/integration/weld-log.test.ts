@@ -291,6 +291,12 @@ describe('weld log files', () => {
 		expect(sheet.actualRowCount).toBe(expected.length + 1);
 		const header = (sheet.getRow(1).values as unknown[]).slice(1);
 		expect(header).toEqual(weldLog.COLUMNS.map((c) => c.header));
+		// The header stays in view and carries filter buttons over every row.
+		expect(sheet.views[0]).toMatchObject({ state: 'frozen', ySplit: 1 });
+		expect(sheet.autoFilter).toBe(
+			`A1:${sheet.getColumn(weldLog.COLUMNS.length).letter}${expected.length + 1}`
+		);
+		expect(sheet.getColumn(1).width).toBe(18);
 		expected.forEach((row, n) => {
 			const values = (sheet.getRow(n + 2).values as unknown[]).slice(1);
 			const wanted = weldLog.COLUMNS.map((c) => c.value(row));

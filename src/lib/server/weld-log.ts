@@ -357,7 +357,11 @@ export async function writeCsv(
 export async function writeXlsx(
 	rows: Iterable<WeldLogRow>,
 	writable: Writable,
-	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS,
+	columns: readonly {
+		header: string;
+		value: (row: WeldLogRow) => string | number;
+		width?: number;
+	}[] = COLUMNS,
 	{ fixedDate }: { fixedDate?: Date } = {}
 ): Promise<void> {
 	const workbook = new ExcelJS.stream.xlsx.WorkbookWriter({
@@ -369,7 +373,7 @@ export async function writeXlsx(
 	const sheet = workbook.addWorksheet('Weld log', { views: [{ state: 'frozen', ySplit: 1 }] });
 	sheet.columns = columns.map((c) => ({
 		header: c.header,
-		width: Math.max(10, c.header.length + 2)
+		width: c.width ?? Math.max(10, c.header.length + 2)
 	}));
 	sheet.getRow(1).font = { bold: true };
 	sheet.getRow(1).commit();
@@ -379,6 +383,8 @@ export async function writeXlsx(
 		// Let the zip stream drain now and then; the rows themselves come synchronously.
 		if (++n % 200 === 0) await new Promise((resolve) => setImmediate(resolve));
 	}
+	// Filter buttons on the header over every row: the first thing a QC manager reaches for.
+	sheet.autoFilter = { from: { row: 1, column: 1 }, to: { row: n + 1, column: columns.length } };
 	sheet.commit();
 	await workbook.commit();
 }
