@@ -53,6 +53,20 @@ describe('ruleWords', () => {
 			ruleWords(set('asme-b31.3-normal').limits['misalignment.max']!.rule, 'mm', 'imperial')
 		).toMatch(/^no fixed number: B31\.3 gives no number/);
 	});
+
+	// ISO 5817:2014 Table 1, 5213 (insufficient throat), level C: no number checked for t ≤ 3 mm.
+	it('reads a note inside a stepped limit as an aside, without a stray full stop', () => {
+		const rule = set('iso-5817-c').limits['fillet.throat.min']!.rule;
+		expect(ruleWords(rule, 'mm', 'metric')).toMatch(
+			/^at most \(by thickness, up to 3 mm: \(no fixed number: Insufficient throat on walls of 3 mm and less was not checked\); over that: /
+		);
+		for (const id of ['aws-d1.1-static', 'asme-b31.3-normal', 'api-1104', 'iso-5817-b']) {
+			for (const [check, limit] of Object.entries(set(id).limits)) {
+				const words = ruleWords(limit!.rule, limitUnit(check as never), 'metric');
+				expect(words, `${id} ${check}`).not.toMatch(/\.[;)]/);
+			}
+		}
+	});
 });
 
 describe('exprWords', () => {

@@ -128,10 +128,12 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 	}
 	if ('either' in expr) {
 		return wrap(
-			`${expr.either.map((e) => exprWords(e, words, true)).join(' or ')} (${expr.because})`
+			`${expr.either.map((e) => exprWords(e, words, true)).join(' or ')} (${expr.because.replace(/\.$/, '')})`
 		);
 	}
-	return `no fixed number: ${expr.open}`;
+	const open = `no fixed number: ${expr.open}`;
+	// Inside a longer sentence the note reads as one aside, without its own full stop.
+	return nested ? wrap(open.replace(/\.$/, '')) : open;
 }
 
 function allowanceWords(allowance: LengthAllowance, units: UnitSystem): string {
