@@ -107,3 +107,23 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 	await expect(page).toHaveURL(/scope=all&superseded=1/);
 	await expect(page.getByRole('button', { name: 'Export the turnover set' })).toBeVisible();
 });
+
+test('a changed scope is shown again before it can be exported', async ({ page }) => {
+	await signInInBrowser(page, 'turnover@tacksheet.test');
+	await expect(page.getByRole('heading', { name: 'Projects' })).toBeVisible();
+	await page.goto('/projects/1/turnover?scope=all');
+	const exportButton = page.getByRole('button', { name: 'Export the turnover set' });
+	await expect(exportButton).toBeVisible();
+
+	// Choosing other drawings leaves the whole project's preview on screen, so it cannot be
+	// exported by mistake until the new scope is shown.
+	await page.getByLabel('Chosen drawings').check();
+	await expect(page.getByText('The choices changed.')).toBeVisible();
+	await expect(exportButton).toHaveCount(0);
+
+	await page.getByLabel('An area').check();
+	await page.getByRole('button', { name: 'Show what the set holds' }).click();
+	await expect(page).toHaveURL(/scope=area/);
+	await expect(page.getByText('The choices changed.')).toHaveCount(0);
+	await expect(exportButton).toBeVisible();
+});
