@@ -305,6 +305,21 @@ describe('weld log files', () => {
 		});
 	});
 
+	it('stops a workbook whose reader went away, instead of waiting for ever', async () => {
+		// Plant-sized: enough rows that the zip inside the workbook has to wait for its reader.
+		const [sample] = weldLog.iterate(lbm, filter());
+		function* many() {
+			for (let n = 0; n < 30_000; n++) yield { ...sample, weldNumber: String(n) };
+		}
+		const reader = new PassThrough();
+		let read = 0;
+		reader.on('data', (chunk: Buffer) => {
+			read += chunk.length;
+			if (read > 100_000) reader.destroy();
+		});
+		await expect(weldLog.writeXlsx(many(), reader)).rejects.toThrow('The download was cancelled.');
+	}, 60_000);
+
 	it('names the file safely', () => {
 		const at = new Date(Date.UTC(2026, 11, 2));
 		expect(weldLog.fileName('LBM-20', 'csv', at)).toBe('LBM-20-weld-log-2026-12-02.csv');

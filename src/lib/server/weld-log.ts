@@ -350,6 +350,29 @@ export async function writeCsv(
 }
 
 /**
+ * exceljs's streaming sheet hands its XML on to the zip without waiting (its write always
+ * answers true), so 100,000 rows would pile up unzipped in memory. Wait while the zip's
+ * entry stream holds more than it can take, then give the event loop a turn. A reader that
+ * went away (the download was cancelled) ends the wait, and the workbook with it.
+ */
+async function sheetDrained(
+	sheet: ExcelJS.stream.xlsx.WorksheetWriter,
+	writable: Writable
+): Promise<void> {
+	type Entry = Writable & { _writableState?: { needDrain?: boolean } };
+	const entry = (sheet as unknown as { stream?: { pipes?: Entry[] } }).stream?.pipes?.[0];
+	// archiver's entry is a readable-stream PassThrough, older than `writableNeedDrain`.
+	while (entry?._writableState?.needDrain && !writable.destroyed) {
+		const settled = new AbortController();
+		const { signal } = settled;
+		await Promise.race([once(entry, 'drain', { signal }), once(writable, 'close', { signal })]);
+		settled.abort();
+	}
+	if (writable.destroyed) throw new Error('The download was cancelled.');
+	await new Promise((resolve) => setImmediate(resolve));
+}
+
+/**
  * An Excel workbook of one sheet, each row committed (and so flushed) as it is written.
  * With `fixedDate`, the workbook's created and modified dates are that date instead of now
  * (turnover sets, which need the same bytes for unchanged rows).
@@ -381,7 +404,7 @@ export async function writeXlsx(
 	for (const row of rows) {
 		sheet.addRow(columns.map((c) => c.value(row))).commit();
 		// Let the zip stream drain now and then; the rows themselves come synchronously.
-		if (++n % 200 === 0) await new Promise((resolve) => setImmediate(resolve));
+		if (++n % 200 === 0) await sheetDrained(sheet, writable);
 	}
 	// Filter buttons on the header over every row: the first thing a QC manager reaches for.
 	sheet.autoFilter = { from: { row: 1, column: 1 }, to: { row: n + 1, column: columns.length } };
