@@ -355,12 +355,9 @@ export async function writeCsv(
  * entry stream holds more than it can take, then give the event loop a turn. A reader that
  * went away (the download was cancelled) ends the wait, and the workbook with it.
  */
-async function sheetDrained(
-	sheet: ExcelJS.stream.xlsx.WorksheetWriter,
-	writable: Writable
-): Promise<void> {
+async function sheetDrained(sheet: object, writable: Writable): Promise<void> {
 	type Entry = Writable & { _writableState?: { needDrain?: boolean } };
-	const entry = (sheet as unknown as { stream?: { pipes?: Entry[] } }).stream?.pipes?.[0];
+	const entry = (sheet as { stream?: { pipes?: Entry[] } }).stream?.pipes?.[0];
 	// archiver's entry is a readable-stream PassThrough, older than `writableNeedDrain`.
 	while (entry?._writableState?.needDrain && !writable.destroyed) {
 		const settled = new AbortController();
