@@ -16,6 +16,7 @@ import * as welds from '$lib/server/welds';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { POST } from '../../src/routes/api/projects/[projectId=id]/inspection-requests/+server';
+import { qualifiedWelder } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,7 +26,7 @@ let drawing: typeof schema.drawings.$inferSelect;
 let inspectorId: string;
 let foremanId: string;
 let inspectorEmails: string[];
-const stamp = 'RQ1';
+let stamp: string;
 
 beforeAll(async () => {
 	await seedIfEmpty();
@@ -48,19 +49,7 @@ beforeAll(async () => {
 		.members(projectId)
 		.filter((m) => m.role === 'inspector')
 		.map((m) => m.email);
-	const welder = db
-		.insert(schema.welders)
-		.values({ projectId, stamp, name: 'Request test welder' })
-		.returning()
-		.get();
-	db.insert(schema.welderQualifications)
-		.values({
-			welderId: welder.id,
-			process: 'GTAW',
-			qualifiedOn: '2024-01-08',
-			lastUsedOn: '2025-05-01'
-		})
-		.run();
+	stamp = qualifiedWelder(projectId, 'RQ');
 }, 120_000);
 
 let placed = 0;

@@ -16,6 +16,7 @@ import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspectio
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { countsTable, directCounts } from '../fixtures/state-counts';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { qualifiedWelder } from '../fixtures/welders';
 
 let projectId: number;
 let revisionId: number;
@@ -102,20 +103,7 @@ describe('per-drawing state counts', () => {
 		expect(joints.row(b.id)!.state).toBe('fitup_rejected');
 		expect(countsTable()).toEqual(directCounts());
 
-		const stamp = 'SC-01';
-		const welder = db
-			.insert(schema.welders)
-			.values({ projectId, stamp, name: 'Counts test welder' })
-			.returning()
-			.get();
-		db.insert(schema.welderQualifications)
-			.values({
-				welderId: welder.id,
-				process: 'GTAW',
-				qualifiedOn: '2024-01-08',
-				lastUsedOn: '2025-05-01'
-			})
-			.run();
+		const stamp = qualifiedWelder(projectId, 'SC');
 		welds.record(
 			a.id,
 			recordWeldSchema.parse({

@@ -3,7 +3,7 @@
  * SQLite file with the demo job. Counts are checked against direct SQL counts, owed lists
  * against their order (oldest in the state first) and the filters against what they name.
  */
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
@@ -17,6 +17,7 @@ import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspectio
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { GET } from '../../src/routes/api/projects/[projectId=id]/outstanding/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { qualifiedWelder } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -156,20 +157,12 @@ describe('filters', () => {
 	});
 
 	it('by welder shows the joints that welder stamped', () => {
-		const stamp = `OB${Date.now() % 100_000}`;
+		const stamp = qualifiedWelder(projectId, 'OB');
 		const welder = db
-			.insert(schema.welders)
-			.values({ projectId, stamp, name: 'Board test welder' })
-			.returning()
-			.get();
-		db.insert(schema.welderQualifications)
-			.values({
-				welderId: welder.id,
-				process: 'GTAW',
-				qualifiedOn: '2024-01-08',
-				lastUsedOn: '2025-05-01'
-			})
-			.run();
+			.select()
+			.from(schema.welders)
+			.where(and(eq(schema.welders.projectId, projectId), eq(schema.welders.stamp, stamp)))
+			.get()!;
 		const joint = placeJoint(true);
 		welds.record(
 			joint.id,
