@@ -540,24 +540,35 @@ export function update(
 	});
 }
 
+/** The joint void with its reason, its pins out of review, its state cached: one transaction's part. */
+function markVoid(
+	tx: Tx,
+	joint: { id: number; version: number },
+	reason: string,
+	userId: string,
+	now: number
+) {
+	tx.update(j)
+		.set({
+			voidReason: reason,
+			voidedAt: now,
+			voidedBy: userId,
+			version: joint.version + 1,
+			updatedAt: now
+		})
+		.where(eq(j.id, joint.id))
+		.run();
+	tx.update(p).set({ needsReview: false }).where(eq(p.jointId, joint.id)).run();
+	refreshState(joint.id, tx, now);
+}
+
 /** Void a joint: it stays in the log, greyed, and its number is never used again. */
 export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
 	return db.transaction((tx) => {
 		const joint = lockedJoint(tx, jointId, version);
 		if (joint.voidedAt) throw new JointError(`Joint ${joint.number} is already void.`, 409);
 		const now = Date.now();
-		tx.update(j)
-			.set({
-				voidReason: reason,
-				voidedAt: now,
-				voidedBy: userId,
-				version: joint.version + 1,
-				updatedAt: now
-			})
-			.where(eq(j.id, jointId))
-			.run();
-		tx.update(p).set({ needsReview: false }).where(eq(p.jointId, jointId)).run();
-		refreshState(jointId, tx, now);
+		markVoid(tx, joint, reason, userId, now);
 		audit.record(
 			{
 				action: 'void',
@@ -752,18 +763,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 		const number = cutOutWeldNumber(joint.number, numbersOf(joint.drawingId, tx));
 		const now = Date.now();
 		const voidReason = `Cut out: ${reason}; replaced by ${number}`;
-		tx.update(j)
-			.set({
-				voidReason,
-				voidedAt: now,
-				voidedBy: userId,
-				version: joint.version + 1,
-				updatedAt: now
-			})
-			.where(eq(j.id, jointId))
-			.run();
-		tx.update(p).set({ needsReview: false }).where(eq(p.jointId, jointId)).run();
-		refreshState(jointId, tx, now);
+		markVoid(tx, joint, voidReason, userId, now);
 		const carried = Object.fromEntries(CARRIED.map((key) => [key, joint[key]])) as Pick<
 			typeof joint,
 			(typeof CARRIED)[number]
