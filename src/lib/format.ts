@@ -16,3 +16,13 @@ export function formatDate(ms: number): string {
 		year: 'numeric'
 	});
 }
+
+/** A calendar day as stored (`2026-10-09`, a weld date) in the same words: the day itself, in no zone. */
+export function formatDay(day: string): string {
+	return new Date(`${day}T00:00:00Z`).toLocaleDateString('en-GB', {
+		day: '2-digit',
+		month: 'short',
+		year: 'numeric',
+		timeZone: 'UTC'
+	});
+}
