@@ -27,6 +27,7 @@ import { GET as getSet } from '../../src/routes/api/projects/[projectId=id]/crit
 import { POST as evaluatePost } from '../../src/routes/api/acceptance/evaluate/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
 import { weldJoint } from '../fixtures/welders';
+import { CLEAN, FITUP } from '../fixtures/readings';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -70,15 +71,6 @@ function newJoint(fields: Partial<JointFields> = {}) {
 	).joint;
 }
 
-const CLEAN = {
-	reinforcement: '1/16',
-	porosity: '0',
-	crack: false,
-	overlap: false,
-	craterUnfilled: false,
-	incompleteFusion: false
-};
-
 /** Fit-up accepted and welded: the joint awaits its visual. */
 function weldedJoint(criteriaSetId: string) {
 	const joint = newJoint({ criteriaSetId });
@@ -86,7 +78,7 @@ function weldedJoint(criteriaSetId: string) {
 		joint.id,
 		recordInspectionSchema.parse({
 			stage: 'fitup',
-			readings: { rootOpening: '1/8', bevelAngle: '37.5°', rootFace: '1/16', misalignment: '1/32' },
+			readings: FITUP,
 			decision: 'accept'
 		}),
 		inspectorId

@@ -21,6 +21,7 @@ import { POST as postCutOut } from '../../src/routes/api/joints/[jointId=id]/cut
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
 import { weldJoint } from '../fixtures/welders';
+import { FITUP, OUTSIDE, WITHIN } from '../fixtures/readings';
 import { countsTable, directCounts } from '../fixtures/state-counts';
 
 type Handler = (event: never) => Response | Promise<Response>;
@@ -71,19 +72,6 @@ function newJoint(fields: Partial<JointFields> = {}, number?: string) {
 
 const inspect = (jointId: number, body: unknown) =>
 	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
-
-const FITUP = { rootOpening: '1/8', bevelAngle: '37-1/2°', rootFace: '1/16', misalignment: '1/32' };
-const CLEAN = {
-	reinforcement: '1/16',
-	porosity: '0',
-	crack: false,
-	overlap: false,
-	craterUnfilled: false,
-	incompleteFusion: false
-};
-// ASME B31.3-2018 Table 341.3.2 criterion H: Tw = 0.280 in gives min(1/32 in, 0.070 in) = 1/32 in.
-const WITHIN = { ...CLEAN, undercutDepth: '1/32' };
-const OUTSIDE = { ...CLEAN, undercutDepth: '1/16' };
 
 /** A joint welded and rejected at visual: in repair. */
 function jointInRepair(fields: Partial<JointFields> = {}, number?: string) {

@@ -26,6 +26,7 @@ import {
 } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
 import { qualifiedWelder, weldJoint } from '../fixtures/welders';
+import { CLEAN, FITUP, OUTSIDE, WITHIN } from '../fixtures/readings';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -77,26 +78,8 @@ function expectCacheAgrees(jointId: number) {
 	return cached;
 }
 
-const FITUP = {
-	rootOpening: '1/8',
-	bevelAngle: '37-1/2°',
-	rootFace: '1/16',
-	misalignment: '1/32'
-};
-/** No defects found; porosity 0 is within even where note (5) leaves thicker walls open. */
-const CLEAN = {
-	reinforcement: '1/16',
-	porosity: '0',
-	crack: false,
-	overlap: false,
-	craterUnfilled: false,
-	incompleteFusion: false
-};
-// ASME B31.3-2018 Table 341.3.2 criterion H: undercut ≤ the lesser of 1 mm (1/32 in) and Tw/4.
-// Tw = 0.280 in gives min(1/32, 0.070) = 1/32 in (the engine's inch column: 0.79375 mm).
-const WITHIN = { ...CLEAN, undercutDepth: '1/32' };
+// Just past ASME B31.3-2018 Table 341.3.2 criterion H's 1/32 in (0.79375 mm) on Tw = 0.280 in.
 const JUST_OUTSIDE = { ...CLEAN, undercutDepth: '0.032 in' };
-const OUTSIDE = { ...CLEAN, undercutDepth: '1/16' };
 
 function request(path: string, method: 'GET' | 'POST', body?: unknown) {
 	return new Request(`http://localhost${path}`, {
