@@ -5,6 +5,7 @@ import * as storage from './storage';
 import * as audit from './audit';
 import { inspectPdf } from './pdf-inspect';
 import * as events from './events';
+import * as tiles from './tiles';
 import type { StagedUpload } from './staged-uploads';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import type { z } from 'zod';
@@ -363,7 +364,7 @@ export async function create(
 		}
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
-		return db.transaction((tx) => {
+		const stored = db.transaction((tx) => {
 			const drawing = tx
 				.insert(d)
 				.values({
@@ -397,6 +398,8 @@ export async function create(
 			);
 			return { drawing, revisionId: created.id };
 		});
+		tiles.queue(stored.revisionId);
+		return stored;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
 		throw error;
@@ -498,6 +501,7 @@ export async function addRevision(
 			);
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
 		});
+		tiles.queue(result.revisionId);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',

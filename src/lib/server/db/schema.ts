@@ -281,6 +281,50 @@ export const pages = sqliteTable(
 	(t) => [uniqueIndex('pages_revision_index').on(t.revisionId, t.pageIndex)]
 );
 
+export const TILE_STATUSES = ['queued', 'rendering', 'done', 'failed'] as const;
+export type TileStatus = (typeof TILE_STATUSES)[number];
+export type TileFormat = 'webp' | 'png' | 'jpeg';
+
+/** One level of a sheet's tile pyramid: `scale` image pixels per sheet unit (PDF point). */
+export interface TileLevel {
+	scale: number;
+	width: number;
+	height: number;
+	cols: number;
+	rows: number;
+}
+
+/**
+ * A sheet rendered once on the server into a pyramid of image tiles (stored under the
+ * revision, see src/lib/server/tiles.ts), so the viewer shows it at once. `raster`: the sheet
+ * is a scan (one big image), which the viewer shows from its tiles alone.
+ */
+export const sheetTiles = sqliteTable(
+	'sheet_tiles',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		revisionId: integer('revision_id')
+			.notNull()
+			.references(() => revisions.id, { onDelete: 'cascade' }),
+		pageIndex: integer('page_index').notNull(),
+		status: text('status').$type<TileStatus>().notNull().default('queued'),
+		raster: integer('raster', { mode: 'boolean' }).notNull().default(false),
+		format: text('format').$type<TileFormat>(),
+		tileSize: integer('tile_size').notNull().default(512),
+		levels: text('levels', { mode: 'json' }).$type<TileLevel[]>().notNull().default([]),
+		tiles: integer('tiles').notNull().default(0),
+		bytes: integer('bytes').notNull().default(0),
+		renderMs: integer('render_ms'),
+		error: text('error'),
+		queuedAt: integer('queued_at').notNull().default(now),
+		finishedAt: integer('finished_at')
+	},
+	(t) => [
+		uniqueIndex('sheet_tiles_revision_page').on(t.revisionId, t.pageIndex),
+		index('sheet_tiles_status').on(t.status)
+	]
+);
+
 // Joints and their records ------------------------------------------------------------
 
 /**
