@@ -2,8 +2,9 @@
  * Tile pyramids of drawing sheets. Each sheet of a stored revision is rendered once, in the
  * background, into image tiles at a few zoom levels (server/render-worker.mjs, one worker
  * thread working through a queue), so the viewer shows a sheet at once instead of waiting for
- * pdf.js to download, parse and draw it. Tiles are stored through the storage module under
- * the revision; `sheet_tiles` records what exists for each sheet.
+ * pdf.js to download, parse and draw it. Tiles are stored through the storage module, keyed
+ * by revision (`tiles/{revisionId}/{page}/{level}/{col}_{row}.webp`); `sheet_tiles` records
+ * what exists for each sheet.
  */
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
@@ -28,7 +29,7 @@ export const CONTENT_TYPES: Record<TileFormat, string> = {
 };
 
 function folderOf(revisionId: number, pageIndex: number): string {
-	return `revisions/${revisionId}/tiles/${pageIndex}`;
+	return `tiles/${revisionId}/${pageIndex}`;
 }
 
 export function keyOf(
