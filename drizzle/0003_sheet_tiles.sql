@@ -6,6 +6,8 @@ CREATE TABLE `sheet_tiles` (
 	`raster` integer DEFAULT false NOT NULL,
 	`format` text,
 	`tile_size` integer DEFAULT 512 NOT NULL,
+	`width` real,
+	`height` real,
 	`levels` text DEFAULT '[]' NOT NULL,
 	`tiles` integer DEFAULT 0 NOT NULL,
 	`bytes` integer DEFAULT 0 NOT NULL,

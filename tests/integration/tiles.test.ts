@@ -193,6 +193,7 @@ describe('sheet tiles', () => {
 		expect(sheet.status).toBe('done');
 		expect(sheet.raster).toBe(false);
 		expect(['webp', 'png']).toContain(sheet.format);
+		expect([sheet.width, sheet.height]).toEqual([1224, 792]);
 		// Long sides 512, 1024, 2048 and 4096 px over the 1224 pt wide view box.
 		expect(sheet.levels.map((l) => l.width)).toEqual([512, 1024, 2048, 4096]);
 		for (const level of sheet.levels) {

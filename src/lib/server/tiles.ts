@@ -161,6 +161,8 @@ function enqueue(revisionId: number, pages?: number[]): void {
 						error: null,
 						queuedAt: Date.now(),
 						finishedAt: null,
+						width: null,
+						height: null,
 						levels: [],
 						tiles: 0,
 						bytes: 0,
@@ -309,6 +311,8 @@ async function handle(message: WorkerMessage): Promise<void> {
 					raster: pyramid.raster,
 					format: pyramid.format,
 					tileSize: pyramid.tileSize,
+					width: pyramid.width,
+					height: pyramid.height,
 					levels: pyramid.levels,
 					tiles: pyramid.tiles,
 					bytes: pyramid.bytes,
@@ -387,6 +391,9 @@ export interface SheetTilesJson {
 	raster: boolean;
 	format: TileFormat | null;
 	tileSize: number;
+	/** The sheet in sheet units, as the tiles were drawn. */
+	width: number | null;
+	height: number | null;
 	levels: TileLevel[];
 	tiles: number;
 	bytes: number;
@@ -413,6 +420,8 @@ export function index(revisionId: number): SheetTilesJson[] {
 			raster: row.raster,
 			format: row.format,
 			tileSize: row.tileSize,
+			width: row.status === 'done' ? row.width : null,
+			height: row.status === 'done' ? row.height : null,
 			levels: row.status === 'done' ? row.levels : [],
 			tiles: row.tiles,
 			bytes: row.bytes,

@@ -311,6 +311,9 @@ export const sheetTiles = sqliteTable(
 		raster: integer('raster', { mode: 'boolean' }).notNull().default(false),
 		format: text('format').$type<TileFormat>(),
 		tileSize: integer('tile_size').notNull().default(512),
+		/** The sheet in sheet units (PDF points × the page's UserUnit, rotation applied). */
+		width: real('width'),
+		height: real('height'),
 		levels: text('levels', { mode: 'json' }).$type<TileLevel[]>().notNull().default([]),
 		tiles: integer('tiles').notNull().default(0),
 		bytes: integer('bytes').notNull().default(0),
