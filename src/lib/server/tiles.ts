@@ -12,7 +12,7 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as storage from './storage';
 import * as events from './events';
-import type { TileFormat, TileLevel, TileStatus } from './db/schema';
+import type { SheetTiles, TileFormat, TileLevel } from '$lib/sheet-tiles';
 
 export const TILE_SIZE = 512;
 const WORKER_FILE = path.resolve(process.cwd(), 'server/render-worker.mjs');
@@ -385,29 +385,8 @@ function tell(revisionId: number): void {
 	});
 }
 
-export interface SheetTilesJson {
-	pageIndex: number;
-	status: TileStatus;
-	raster: boolean;
-	format: TileFormat | null;
-	tileSize: number;
-	/** The sheet in sheet units, as the tiles were drawn. */
-	width: number | null;
-	height: number | null;
-	levels: TileLevel[];
-	tiles: number;
-	bytes: number;
-	renderMs: number | null;
-	error: string | null;
-	/** Changes whenever the sheet is rendered again. */
-	version: number | null;
-	/** Tiles are at `{url}/{level}/{col}_{row}.{extension}`. */
-	url: string;
-	extension: string | null;
-}
-
 /** The pyramid of every sheet of a revision that has one, queued or done. */
-export function index(revisionId: number): SheetTilesJson[] {
+export function index(revisionId: number): SheetTiles[] {
 	return db
 		.select()
 		.from(t)

@@ -26,6 +26,7 @@ import {
 import type { ProjectRole } from '../../permissions';
 import type { CheckId, Finding } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
+import type { TileFormat, TileLevel, TileStatus } from '../../sheet-tiles';
 
 export type { ProjectRole };
 export const UNIT_SYSTEMS = ['imperial', 'metric'] as const;
@@ -280,19 +281,6 @@ export const pages = sqliteTable(
 	},
 	(t) => [uniqueIndex('pages_revision_index').on(t.revisionId, t.pageIndex)]
 );
-
-export const TILE_STATUSES = ['queued', 'rendering', 'done', 'failed'] as const;
-export type TileStatus = (typeof TILE_STATUSES)[number];
-export type TileFormat = 'webp' | 'png' | 'jpeg';
-
-/** One level of a sheet's tile pyramid: `scale` image pixels per sheet unit (PDF point). */
-export interface TileLevel {
-	scale: number;
-	width: number;
-	height: number;
-	cols: number;
-	rows: number;
-}
 
 /**
  * A sheet rendered once on the server into a pyramid of image tiles (stored under the
