@@ -11,9 +11,20 @@
 //      { type: 'job-done', jobId } | { type: 'job-failed', jobId, message }
 import { parentPort } from 'node:worker_threads';
 import { createRequire } from 'node:module';
+import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { createCanvas } from '@napi-rs/canvas';
+
+// Sheets are background work: the server's own threads get the processor first. On Linux a
+// thread has its own nice value; elsewhere this does nothing.
+try {
+	const threadId = Number(fs.readlinkSync('/proc/thread-self').split('/').pop());
+	if (threadId > 0) os.setPriority(threadId, 10);
+} catch {
+	// not Linux, or not allowed: render at normal priority
+}
 
 const require = createRequire(import.meta.url);
 const pdfjsDir = path.dirname(require.resolve('pdfjs-dist/package.json'));
@@ -37,19 +48,18 @@ const WEBP_QUALITY = 82;
 const JPEG_QUALITY = 80;
 
 /** WebP where the canvas package can encode it, PNG otherwise. */
-const format = await (async () => {
+const format = (() => {
 	try {
-		const probe = createCanvas(2, 2);
-		const bytes = await probe.encode('webp', WEBP_QUALITY);
-		return bytes.length > 0 ? 'webp' : 'png';
+		return createCanvas(2, 2).encodeSync('webp', WEBP_QUALITY).length > 0 ? 'webp' : 'png';
 	} catch {
 		return 'png';
 	}
 })();
 
+/** On this (lower priority) thread, not the shared pool the server's file work runs on. */
 function encode(canvas, as) {
-	if (as === 'jpeg') return canvas.encode('jpeg', JPEG_QUALITY);
-	return as === 'webp' ? canvas.encode('webp', WEBP_QUALITY) : canvas.encode('png');
+	if (as === 'jpeg') return canvas.encodeSync('jpeg', JPEG_QUALITY);
+	return as === 'webp' ? canvas.encodeSync('webp', WEBP_QUALITY) : canvas.encodeSync('png');
 }
 
 function multiply(m, n) {
@@ -131,7 +141,7 @@ async function sendTiles(band, top, level, plan, sheetFormat, send) {
 			// on every call.
 			const tile = plan.tileCanvas(w, h);
 			tile.getContext('2d').putImageData(context.getImageData(x, y - top, w, h), 0, 0);
-			send(level, col, row, await encode(tile, sheetFormat));
+			send(level, col, row, encode(tile, sheetFormat));
 		}
 	}
 }
