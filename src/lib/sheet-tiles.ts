@@ -41,6 +41,27 @@ export interface SheetTiles {
 	extension: string | null;
 }
 
+/** A revision whose sheets are being prepared (or failed to be), with how far it is. */
+export interface PreparingRevision {
+	revisionId: number;
+	drawingId: number;
+	number: string;
+	label: string;
+	total: number;
+	done: number;
+	failed: number;
+}
+
+/** `GET /api/projects/{id}/tiles`: "Preparing sheets 3/12". */
+export interface TileProgress {
+	preparing: PreparingRevision[];
+	/** Current revisions where a sheet could not be prepared (it opens with pdf.js). */
+	failed: PreparingRevision[];
+	/** Sheets finished (or failed) and in all, over the revisions being prepared. */
+	done: number;
+	total: number;
+}
+
 export interface SheetRect {
 	x: number;
 	y: number;

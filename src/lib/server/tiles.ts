@@ -12,7 +12,13 @@ import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as storage from './storage';
 import * as events from './events';
-import type { SheetTiles, TileFormat, TileLevel } from '$lib/sheet-tiles';
+import type {
+	PreparingRevision,
+	SheetTiles,
+	TileFormat,
+	TileLevel,
+	TileProgress
+} from '$lib/sheet-tiles';
 
 export const TILE_SIZE = 512;
 const WORKER_FILE = path.resolve(process.cwd(), 'server/render-worker.mjs');
@@ -437,21 +443,11 @@ export function tile(
 	};
 }
 
-export interface PreparingRevision {
-	revisionId: number;
-	drawingId: number;
-	number: string;
-	label: string;
-	total: number;
-	done: number;
-	failed: number;
-}
-
 /**
  * The project's revisions whose sheets are being prepared, and current ones where a sheet
  * failed, with the sheets done so far: "Preparing sheets 3/12".
  */
-export function progress(projectId: number) {
+export function progress(projectId: number): TileProgress {
 	const open = db
 		.selectDistinct({ revisionId: t.revisionId })
 		.from(t)
