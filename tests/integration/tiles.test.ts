@@ -287,6 +287,25 @@ describe('sheet tiles', () => {
 		expect(tiles.index(demo).every((s) => s.status === 'done')).toBe(true);
 	}, 60_000);
 
+	it('renders a sheet someone is looking at ahead of the uploads waiting', async () => {
+		const order: number[] = [];
+		const stop = events.subscribe(lbm, (event) => {
+			if (event.type === 'tiles' && event.done === event.total) order.push(event.revisionId);
+		});
+		const busy = await upload(await markedSheet(0));
+		const waiting = await upload(await markedSheet(90));
+		const viewed = await upload(await scannedSheet(100));
+		tiles.ensure(viewed);
+		await tiles.idle();
+		stop();
+		// The first was already being drawn; the viewed one overtakes the one still waiting.
+		expect(order.filter((id) => [busy, waiting, viewed].includes(id))).toEqual([
+			busy,
+			viewed,
+			waiting
+		]);
+	}, 60_000);
+
 	it('refuses a tile that is out of range or of another format', async () => {
 		const revisionId = await upload(await markedSheet(0));
 		await tiles.idle();

@@ -138,18 +138,19 @@ function isHeld(revisionId: number): boolean {
 
 /**
  * Queues the sheets of a stored revision for rendering (all of them, or the pages given).
- * Called when a revision is stored, and when one without tiles is first viewed.
+ * Called when a revision is stored, and when one without tiles is first viewed; `first`
+ * puts it ahead of the others (someone is looking at it).
  */
-export function queue(revisionId: number, pages?: number[]): void {
+export function queue(revisionId: number, pages?: number[], first = false): void {
 	try {
-		enqueue(revisionId, pages);
+		enqueue(revisionId, pages, first);
 	} catch (error) {
 		// A stored revision stands without its tiles: the viewer uses pdf.js and queues again.
 		console.error(`Tacksheet: the sheets of revision ${revisionId} were not queued:`, error);
 	}
 }
 
-function enqueue(revisionId: number, pages?: number[]): void {
+function enqueue(revisionId: number, pages: number[] | undefined, first: boolean): void {
 	const facts = revisionFacts(revisionId);
 	if (!facts) return;
 	const wanted = (pages ?? Array.from({ length: facts.pageCount }, (_, i) => i)).filter(
@@ -179,9 +180,11 @@ function enqueue(revisionId: number, pages?: number[]): void {
 		}
 	});
 	const waiting = renderer.waiting.find((job) => job.revisionId === revisionId);
-	if (waiting) waiting.pages = [...new Set([...waiting.pages, ...wanted])].sort((a, b) => a - b);
-	else
-		renderer.waiting.push({
+	if (waiting) {
+		waiting.pages = [...new Set([...waiting.pages, ...wanted])].sort((a, b) => a - b);
+		if (first) moveToFront(waiting);
+	} else {
+		const job: Job = {
 			id: renderer.nextJobId++,
 			revisionId,
 			projectId: facts.projectId,
@@ -190,14 +193,17 @@ function enqueue(revisionId: number, pages?: number[]): void {
 			pages: wanted,
 			finished: new Set(),
 			writes: []
-		});
+		};
+		if (first) renderer.waiting.unshift(job);
+		else renderer.waiting.push(job);
+	}
 	tell(revisionId);
 	pump();
 }
 
 /**
- * A revision is being viewed: queue the sheets that have no tiles yet, and those a stopped
- * server left queued or half rendered. A failed sheet stays failed (the viewer uses pdf.js);
+ * A revision is being viewed: its sheets go ahead of the queue; those that have no tiles yet
+ * are queued, and so are those a stopped server left queued or half rendered. A failed sheet stays failed (the viewer uses pdf.js);
  * `npm run tiles:backfill -- --retry` tries those again.
  */
 export function ensure(revisionId: number): void {
@@ -216,7 +222,16 @@ export function ensure(revisionId: number): void {
 		if (status === undefined) missing.push(page);
 		else if ((status === 'queued' || status === 'rendering') && !held) missing.push(page);
 	}
-	if (missing.length > 0) queue(revisionId, missing);
+	if (missing.length > 0) queue(revisionId, missing, true);
+	else {
+		const waiting = renderer.waiting.find((job) => job.revisionId === revisionId);
+		if (waiting) moveToFront(waiting);
+	}
+}
+
+function moveToFront(job: Job): void {
+	renderer.waiting.splice(renderer.waiting.indexOf(job), 1);
+	renderer.waiting.unshift(job);
 }
 
 /** Resolves when every queued sheet has been rendered (or has failed). */
@@ -282,12 +297,12 @@ function finish(job: Job): void {
 
 /** Marks every page the worker did not finish as failed, and moves on to the next job. */
 function failRest(job: Job, message: string): void {
-	for (const page of job.pages) {
-		if (job.finished.has(page)) continue;
+	const left = job.pages.filter((page) => !job.finished.has(page));
+	for (const page of left) {
 		job.finished.add(page);
 		setRow(job, page, { status: 'failed', error: message, finishedAt: Date.now() });
 	}
-	tell(job.revisionId);
+	if (left.length > 0) tell(job.revisionId);
 	finish(job);
 }
 
