@@ -21,6 +21,8 @@ export interface ViewerRevision {
 	pageCount: number;
 	sha256: string;
 	fileUrl: string;
+	/** Size of the PDF, when known. */
+	bytes?: number;
 	pages: SheetBox[];
 	/** Each sheet's tile pyramid, where the server has made one (queued ones too). */
 	tiles?: SheetTiles[];
