@@ -217,6 +217,11 @@ export async function run() {
 			);
 		}
 
+		// Other work on the machine slows a browser most of all: say how busy it was.
+		const [load] = os.loadavg();
+		console.log(
+			`machine: ${os.cpus().length} cores, load average ${load.toFixed(1)} when the loads began`
+		);
 		browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true });
 		const cookies = reader.split('; ').map((pair) => {
 			const at = pair.indexOf('=');
