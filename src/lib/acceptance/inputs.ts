@@ -8,6 +8,7 @@ import type { ParsedReadings } from './checks';
 import {
 	isReadingId,
 	jointLengthFields,
+	quantitySpec,
 	readingDefinitions,
 	type JointLengthField,
 	type ReadingId
@@ -80,7 +81,7 @@ export function readJoint(
 		if (isBlank(value)) continue;
 		const parsed =
 			typeof value === 'string' || typeof value === 'number'
-				? parseLength(value, { units, reading: field })
+				? parseLength(value, { units, reading: quantitySpec(field) })
 				: { ok: false as const, message: `Joint ${field} must be a length` };
 		if (parsed.ok) resolved.lengths[field] = parsed.value;
 		else errors.push({ field: `joint.${field}`, message: parsed.message });
@@ -121,8 +122,8 @@ export function readReadings(
 		}
 		const result =
 			kind === 'angle'
-				? parseAngle(value, { reading: id })
-				: parseLength(value, { units, reading: id });
+				? parseAngle(value, { reading: quantitySpec(id) })
+				: parseLength(value, { units, reading: quantitySpec(id) });
 		if (result.ok) parsed[id] = result.value;
 		else errors.push({ field, message: result.message });
 	}

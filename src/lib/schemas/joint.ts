@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength, type UnitSystem } from '$lib/units';
+import { quantitySpec } from '$lib/acceptance/readings';
 
 export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
 export const JOINT_LOCATIONS = ['shop', 'field'] as const;
@@ -146,7 +147,7 @@ export function jointLengths(
 			values[mmKey] = null;
 			continue;
 		}
-		const parsed = parseLength(typed, { units, reading: field });
+		const parsed = parseLength(typed, { units, reading: quantitySpec(field) });
 		if (!parsed.ok) return { ok: false, field: `joint.${field}`, message: parsed.message };
 		values[mmKey] = parsed.value;
 	}

@@ -15,6 +15,7 @@ import {
 	evaluate,
 	getCriteriaSet,
 	isReadingId,
+	quantitySpec,
 	readingDefinitions,
 	type CriteriaSet,
 	type JointInput,
@@ -65,8 +66,8 @@ export function storedReadings(texts: ReadingTexts, units: UnitSystem): StoredRe
 		}
 		const angle = definition.kind === 'angle';
 		const parsed = angle
-			? parseAngle(raw, { reading: definition.id })
-			: parseLength(raw, { units, reading: definition.id });
+			? parseAngle(raw, { reading: quantitySpec(definition.id) })
+			: parseLength(raw, { units, reading: quantitySpec(definition.id) });
 		// A JSON number is already mm or degrees; the unit goes into the text so that it reads
 		// the same in an inch project, where a bare "1.6" would mean inches.
 		const text = typeof raw === 'number' ? `${raw}${angle ? '°' : ' mm'}` : raw;
