@@ -564,6 +564,6 @@ export function startCleanup() {
 			})
 			.catch((error) => console.error('Turnover clean-up:', error));
 	void run();
-	runner.cleanup = setInterval(run, SWEEP_EVERY_MS);
+	runner.cleanup = setInterval(() => void run(), SWEEP_EVERY_MS);
 	runner.cleanup.unref();
 }

@@ -88,9 +88,9 @@ export class PinStore {
 
 	/** Follow the project's changes; returns the function that stops following. */
 	follow(): () => void {
-		this.refresh();
+		void this.refresh();
 		// Written, never read, here: the effect that calls follow() must not depend on it.
-		const feed = new ProjectFeed(this.projectId, () => this.refresh(), POLL_MS);
+		const feed = new ProjectFeed(this.projectId, () => void this.refresh(), POLL_MS);
 		this.#feed = feed;
 		return feed.start();
 	}

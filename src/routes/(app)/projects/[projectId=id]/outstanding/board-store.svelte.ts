@@ -122,11 +122,12 @@ export class BoardStore {
 
 	private soon() {
 		if (this.settle) clearTimeout(this.settle);
-		this.settle = setTimeout(() => this.refresh(), SETTLE_MS);
+		this.settle = setTimeout(() => void this.refresh(), SETTLE_MS);
 	}
 
 	follow(): () => void {
-		this.refresh();
+		// refresh() shows its own failures as the board's error.
+		void this.refresh();
 		// Written, never read, here: the effect that calls follow() must not depend on it.
 		const feed = new ProjectFeed(this.projectId, () => this.soon(), POLL_MS);
 		this.#feed = feed;
