@@ -25,15 +25,21 @@ function readCsv(text: string): string[][] {
 	for (let n = 0; n < text.length; n++) {
 		const c = text[n];
 		if (quoted) {
-			if (c === '"' && text[n + 1] === '"') ((field += '"'), n++);
-			else if (c === '"') quoted = false;
+			if (c === '"' && text[n + 1] === '"') {
+				field += '"';
+				n++;
+			} else if (c === '"') quoted = false;
 			else field += c;
 		} else if (c === '"') quoted = true;
-		else if (c === ',') (record.push(field), (field = ''));
-		else if (c === '\r' && text[n + 1] === '\n') {
+		else if (c === ',') {
+			record.push(field);
+			field = '';
+		} else if (c === '\r' && text[n + 1] === '\n') {
 			record.push(field);
 			records.push(record);
-			((record = []), (field = ''), n++);
+			record = [];
+			field = '';
+			n++;
 		} else field += c;
 	}
 	if (field || record.length) records.push([...record, field]);

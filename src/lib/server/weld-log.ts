@@ -16,7 +16,7 @@ import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizz
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
 import { stateRank } from './db/schema';
-import { displayWeldNumber, type Decision, type JointState } from '$lib/joint-state';
+import { displayWeldNumber, type Decision } from '$lib/joint-state';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
 import type { WeldLogFilter, WeldLogQuery } from '$lib/schemas/weld-log';
