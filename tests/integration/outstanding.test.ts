@@ -1,12 +1,11 @@
 /**
  * The outstanding board: GET /api/projects/{id}/outstanding and its module against a real
- * SQLite file with the demo job. Counts are checked against direct SQL counts, owed lists
+ * SQLite file with a project made by the test factory. Counts are checked against direct SQL counts, owed lists
  * against their order (oldest in the state first) and the filters against what they name.
  */
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
@@ -16,7 +15,8 @@ import { OWED_STATES } from '$lib/outstanding';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { GET } from '../../src/routes/api/projects/[projectId=id]/outstanding/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeDrawing, makeProject } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 import { qualifiedWelder } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
@@ -28,11 +28,21 @@ let inspectorId: string;
 let foremanId: string;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId, drawingId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// Joints on two drawings in two areas, awaiting fit-up and ready to weld, for the counts.
+	const other = await makeDrawing(job, { area: 'Area 2', system: 'Utility' });
+	for (const drawing of [job.drawing, other]) {
+		makeJoint(drawing);
+		const { joint } = makeJoint(drawing);
+		inspections.record(
+			joint.id,
+			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			inspectorId
+		);
+	}
+});
 
 const query = (q: Record<string, string | number> = {}) => outstandingQuerySchema.parse(q);
 

@@ -1,13 +1,12 @@
 /**
  * The welder register: GET/POST /api/projects/{id}/welders and the module, against a real
- * SQLite file with the demo job. Continuity is the six-month rule of ASME BPVC Section IX
+ * SQLite file with a project made by the test factory. Continuity is the six-month rule of ASME BPVC Section IX
  * QW-322.1 and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006
  * edition), reference/standards.md §7; the register reuses welds.ts's rule for it.
  */
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as welders from '$lib/server/welders';
@@ -15,7 +14,7 @@ import * as welds from '$lib/server/welds';
 import * as users from '$lib/server/users';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { GET, POST } from '../../src/routes/api/projects/[projectId=id]/welders/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject } from '../fixtures/projects';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,11 +24,10 @@ let inspectorId: string;
 let foremanId: string;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+});
 
 async function post(body: unknown) {
 	const response = await (POST as unknown as Handler)({

@@ -1,13 +1,12 @@
 /**
  * Recording welds: the module and POST/GET /api/joints/{id}/welds against a real SQLite file
- * with the demo job. Welder continuity is the six-month rule of ASME BPVC Section IX QW-322.1
+ * with projects made by the test factory. Welder continuity is the six-month rule of ASME BPVC Section IX QW-322.1
  * and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006 edition), see
  * reference/standards.md §7.
  */
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as welds from '$lib/server/welds';
@@ -16,7 +15,8 @@ import { deriveJointState } from '$lib/joint-state';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import { GET, POST } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject } from '../fixtures/projects';
+import { qualifiedWelder } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,16 +25,17 @@ let foremanId: string;
 let adminId: string;
 let projectId: number;
 let revisionId: number;
+/** A welder's stamp on another project. */
+let elsewhereStamp: string;
 const foreman = () => ({ id: foremanId, isAdmin: false });
 const admin = () => ({ id: adminId, isAdmin: true });
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	adminId = demoUserId('admin@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId, admin: adminId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+	elsewhereStamp = qualifiedWelder((await makeProject({ units: 'metric' })).projectId, 'EL');
+});
 
 // Factories ----------------------------------------------------------------------------------
 
@@ -182,7 +183,7 @@ describe('recording a weld', () => {
 			{ pass: 'fill', welderId: fillCap.id, stamp: fillCap.stamp, name: `Welder ${fillCap.stamp}` },
 			{ pass: 'cap', welderId: fillCap.id, stamp: fillCap.stamp, name: `Welder ${fillCap.stamp}` }
 		]);
-		expect(log[0].recordedByName).toBe('Frank Delacourt');
+		expect(log[0].recordedByName).toBe(users.byId(foremanId)!.name);
 	});
 
 	it('moves last use forward only: an earlier weld date leaves it where it is', () => {
@@ -417,15 +418,9 @@ describe('welders refused', () => {
 		expect(unknown.body).toMatchObject({ field: 'welders.cap' });
 		expect(unknown.body.error).toMatch(/No welder with stamp ZZ99/);
 		// A stamp of another project is as unknown as a made-up one.
-		const elsewhere = db
-			.select({ stamp: schema.welders.stamp })
-			.from(schema.welders)
-			.innerJoin(schema.projects, eq(schema.projects.id, schema.welders.projectId))
-			.where(eq(schema.projects.code, 'VFT-3'))
-			.get()!;
 		const foreign = await post(joint.id, foremanId, {
 			weldedOn: '2025-06-02',
-			welders: { root: elsewhere.stamp }
+			welders: { root: elsewhereStamp }
 		});
 		expect(foreign).toMatchObject({ status: 400, body: { field: 'welders.root' } });
 		expect(expectCacheAgrees(joint.id).state).toBe('ready_to_weld');
@@ -461,7 +456,7 @@ describe('an administrator override', () => {
 		const audited = joints.detail(joint.id)!.changes.at(-1)!;
 		expect(audited).toMatchObject({
 			action: 'weld',
-			by: 'Alex Marwood (QC manager)',
+			by: users.byId(adminId)!.name,
 			after: {
 				override: {
 					reason: body.override.reason,

@@ -17,6 +17,39 @@ export function list(projectIds?: readonly number[]) {
 	return rows;
 }
 
+export type NewProject = Pick<typeof schema.projects.$inferInsert, 'code' | 'name'> &
+	Partial<
+		Pick<
+			typeof schema.projects.$inferInsert,
+			| 'client'
+			| 'contractor'
+			| 'site'
+			| 'units'
+			| 'defaultCriteriaSet'
+			| 'weldNumberRule'
+			| 'ndeLotRule'
+		>
+	>;
+
+/** Open a project; what it was opened with goes to the audit trail. */
+export function create(input: NewProject, userId: string) {
+	return db.transaction((tx) => {
+		const project = tx.insert(schema.projects).values(input).returning().get();
+		audit.record(
+			{
+				action: 'create',
+				entity: 'project',
+				entityId: project.id,
+				projectId: project.id,
+				userId,
+				after: { ...input }
+			},
+			tx
+		);
+		return project;
+	});
+}
+
 export function get(projectId: number) {
 	return db.select().from(schema.projects).where(eq(schema.projects.id, projectId)).get();
 }
