@@ -6,7 +6,6 @@
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
@@ -15,7 +14,8 @@ import * as welds from '$lib/server/welds';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { countsTable, directCounts } from '../fixtures/state-counts';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 import { qualifiedWelder } from '../fixtures/welders';
 
 let projectId: number;
@@ -23,13 +23,20 @@ let revisionId: number;
 let drawingId: number;
 let inspectorId: string;
 let foremanId: string;
+let other: MadeDrawing;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId, drawingId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// Joints on two drawings in two areas before the tests change any.
+	other = await makeDrawing(job, { area: 'Area 2' });
+	for (const drawing of [job.drawing, other]) {
+		makeJoint(drawing);
+		fitup(makeJoint(drawing).joint.id, 'accept');
+		fitup(makeJoint(drawing).joint.id, 'reject');
+	}
+});
 
 let placed = 0;
 function placeJoint() {
@@ -84,7 +91,7 @@ function summaryByArea() {
 }
 
 describe('per-drawing state counts', () => {
-	it('equal a direct count after the demo seed', () => {
+	it('equal a direct count for joints placed, fitted up and rejected through the app', () => {
 		expect(countsTable()).toEqual(directCounts());
 	});
 
@@ -121,7 +128,6 @@ describe('per-drawing state counts', () => {
 		expect(countsTable()).toEqual(directCounts());
 
 		// No screen moves a joint between drawings yet; the triggers follow it all the same.
-		const other = demoDrawing('LBM-20-ISO-1102');
 		db.update(schema.joints)
 			.set({ drawingId: other.drawingId, number: `${a.number}-MOVED` })
 			.where(eq(schema.joints.id, a.id))
