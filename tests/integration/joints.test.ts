@@ -1,36 +1,27 @@
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as events from '$lib/server/events';
 import { deriveJointState } from '$lib/joint-state';
+import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 
 let userId: string;
 let revisionId: number;
 let projectId: number;
 let drawingId: number;
+/** Another drawing of the project, on the same line when the test says so. */
+let other: MadeDrawing;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	userId = db
-		.select()
-		.from(schema.users)
-		.where(eq(schema.users.email, 'inspector@tacksheet.test'))
-		.get()!.id;
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1105'))
-		.get()!;
-	drawingId = drawing.id;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
-}, 120_000);
+	const job = await makeProject();
+	userId = job.users.inspector;
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// A drawing already under way: shop welds 1 to 12.
+	for (let n = 0; n < 12; n++) makeJoint(job.drawing);
+	other = await makeDrawing(job);
+});
 
 function numbersOnDrawing() {
 	return db
@@ -196,18 +187,8 @@ describe('numbering by line', () => {
 			userId
 		).joint;
 		expect(Number(first.number)).toBeGreaterThan(1);
-		const other = db
-			.select()
-			.from(schema.drawings)
-			.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-			.get()!;
-		const otherRevision = db
-			.select()
-			.from(schema.revisions)
-			.where(and(eq(schema.revisions.drawingId, other.id), eq(schema.revisions.status, 'current')))
-			.get()!;
 		const second = joints.place(
-			{ revisionId: otherRevision.id, pageIndex: 0, x: 60, y: 60, joint: { line } },
+			{ revisionId: other.revisionId, pageIndex: 0, x: 60, y: 60, joint: { line } },
 			userId
 		).joint;
 		expect(Number(second.number)).toBe(Number(first.number) + 1);
