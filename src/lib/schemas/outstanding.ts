@@ -82,3 +82,31 @@ export const welderStatusSchema = z.object({
 	welderId: id,
 	status: z.enum(['active', 'inactive'], { error: 'The status is active or inactive.' })
 });
+
+/**
+ * The add-welder form: the welder with, optionally, their first process on the same line, in
+ * the same field rules as the API's welder; more processes come through the qualify form.
+ */
+export const welderFormSchema = welderSchema
+	.omit({ processes: true })
+	.extend({
+		process: qualificationSchema.shape.process.optional(),
+		qualifiedOn: qualificationSchema.shape.qualifiedOn.optional(),
+		reference: qualificationSchema.shape.reference
+	})
+	.refine((v) => !v.process || v.qualifiedOn, {
+		error: 'Give the date the process was qualified.',
+		path: ['qualifiedOn']
+	});
+
+/** The welder of the add-welder form, as the API would receive it. */
+export function welderFromForm(form: z.infer<typeof welderFormSchema>): WelderInput {
+	const { process, qualifiedOn, reference, ...welder } = form;
+	return {
+		...welder,
+		processes: process && qualifiedOn ? [{ process, qualifiedOn, reference }] : []
+	};
+}
+
+/** A process qualification added to or renewed for one welder of the register. */
+export const welderQualificationSchema = qualificationSchema.extend({ welderId: id });
