@@ -51,3 +51,19 @@ export const membershipSchema = z.object({
 	email,
 	role: z.enum(PROJECT_ROLES, { error: 'Choose a role.' })
 });
+
+/** A member of the project, as the members list names them. */
+const memberId = z
+	.string({ error: 'Choose the member.' })
+	.trim()
+	.min(1, { error: 'Choose the member.' })
+	.max(64, { error: 'Choose the member.' });
+
+/** A member's new role on the project. */
+export const memberRoleSchema = z.object({
+	userId: memberId,
+	role: z.enum(PROJECT_ROLES, { error: 'Choose one of the roles.' })
+});
+
+/** A member taken off the project. */
+export const memberRemoveSchema = z.object({ userId: memberId });
