@@ -7,7 +7,7 @@ import * as mail from '$lib/server/mail';
 import * as users from '$lib/server/users';
 import * as guard from '$lib/server/sign-in-guard';
 import * as exportJobs from '$lib/server/exports';
-import { ruleFor } from '$lib/server/route-access';
+import { allowedMethods, routeRule, ruleFor } from '$lib/server/route-access';
 import { projectOf } from '$lib/server/route-project';
 import { can, canGlobal, isMember } from '$lib/permissions';
 
@@ -34,6 +34,57 @@ function clientOf(event: RequestEvent): string {
 		return 'unknown';
 	}
 }
+
+/** adapter-node's limit on an ordinary request body (`BODY_SIZE_LIMIT`, default 512K). */
+function bodySizeLimit(): number {
+	const value = (process.env.BODY_SIZE_LIMIT || '512K').trim();
+	const multiplier = { K: 1024, M: 1024 ** 2, G: 1024 ** 3 }[value.slice(-1).toUpperCase()];
+	const bytes = Number(multiplier ? value.slice(0, -1) : value) * (multiplier ?? 1);
+	return Number.isFinite(bytes) && bytes > 0 ? bytes : Infinity;
+}
+
+function refusal(event: RequestEvent, status: number, message: string, allow?: string) {
+	const headers: Record<string, string> = allow ? { allow } : {};
+	if (event.url.pathname.startsWith('/api/')) return json({ error: message }, { status, headers });
+	return new Response(message, {
+		status,
+		headers: { ...headers, 'content-type': 'text/plain; charset=utf-8' }
+	});
+}
+
+/**
+ * Requests the route table already answers, before Auth.js or SvelteKit would throw on them:
+ * a body over the size limit (413), an API path no route has (JSON 404), a method the route
+ * does not take (405 with Allow), a form action the page does not have (404) or a missing or
+ * badly encoded action name (400). The same answer with or without a session.
+ */
+const answerFromTable: Handle = async ({ event, resolve }) => {
+	const { pathname } = event.url;
+	const declared = Number(event.request.headers.get('content-length'));
+	if (declared > bodySizeLimit())
+		return refusal(
+			event,
+			413,
+			`The request body is larger than the ${process.env.BODY_SIZE_LIMIT || '512K'} limit.`
+		);
+	const routeId = event.route.id;
+	if (!routeId) {
+		if (pathname.startsWith('/api/'))
+			return refusal(event, 404, 'There is no such API address. The API is listed in the README.');
+		if (pathname.startsWith('/auth/') && !['GET', 'HEAD', 'POST'].includes(event.request.method))
+			return refusal(event, 405, `${event.request.method} is not taken here.`, 'GET, HEAD, POST');
+		return resolve(event);
+	}
+	if (event.request.method === 'OPTIONS') {
+		return new Response(null, {
+			status: 204,
+			headers: { allow: [...allowedMethods(routeId), 'OPTIONS'].join(', ') }
+		});
+	}
+	const answer = routeRule(routeId, event.request.method, event.url.search);
+	if (!answer.ok) return refusal(event, answer.status, answer.message, answer.allow);
+	return resolve(event);
+};
 
 /**
  * Password sign-ins posted straight to Auth.js (scripts, integrators) pass the same guard
@@ -112,7 +163,7 @@ async function identify(event: RequestEvent): Promise<App.Locals['user']> {
  */
 const authorize: Handle = async ({ event, resolve }) => {
 	const api = event.url.pathname.startsWith('/api/');
-	const deny = (status: 401 | 403 | 404 | 500, message: string) => {
+	const deny = (status: 401 | 403 | 404, message: string) => {
 		if (api) return json({ error: message }, { status });
 		error(status, message);
 	};
@@ -125,7 +176,7 @@ const authorize: Handle = async ({ event, resolve }) => {
 		return resolve(event);
 	}
 	const rule = ruleFor(routeId, event.request.method, event.url.search);
-	if (!rule) return deny(api ? 404 : 500, 'This request is not one Tacksheet answers.');
+	if (!rule) return deny(404, 'This request is not one Tacksheet answers.');
 	if (rule.access === 'public') return resolve(event);
 
 	if (!user) {
@@ -151,4 +202,9 @@ const authorize: Handle = async ({ event, resolve }) => {
 	return resolve(event);
 };
 
-export const handle: Handle = sequence(guardCredentials, authentication, authorize);
+export const handle: Handle = sequence(
+	answerFromTable,
+	guardCredentials,
+	authentication,
+	authorize
+);
