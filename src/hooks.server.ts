@@ -1,6 +1,6 @@
 import { error, json, type Handle, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { handle as authentication } from './auth';
+import { handle as authentication, type SessionUser } from './auth';
 import { getDb } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as mail from '$lib/server/mail';
@@ -120,14 +120,25 @@ const guardCredentials: Handle = async ({ event, resolve }) => {
 const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
 /** How long a decoded session cookie is trusted before Auth.js reads it again. */
 const SESSION_CACHE_MS = 30_000;
-const sessions = new Map<string, { userId: string | null; until: number }>();
+interface DecodedSession {
+	userId: string;
+	generation: number;
+}
+const sessions = new Map<string, { session: DecodedSession | null; until: number }>();
+
+function decoded(session: { user?: SessionUser } | null): DecodedSession | null {
+	const id = session?.user?.id;
+	return id ? { userId: id, generation: session.user?.generation ?? 0 } : null;
+}
 
 /**
- * Who the session cookie belongs to. Decoding it through Auth.js costs a few milliseconds a
- * request, so the answer is kept for a short while per cookie value; the user row and roles
- * are still read on every request, so a role change or a disabled account applies at once.
+ * What the session cookie says: whose it is and its generation. Decoding it through Auth.js
+ * costs a few milliseconds a request, so the answer is kept for a short while per cookie value
+ * (it never changes for one value). Whether that generation is still the user's, the user row
+ * and the roles are read on every request, so a sign-out, a role change or a disabled account
+ * applies at once.
  */
-async function sessionUserId(event: RequestEvent): Promise<string | null> {
+async function sessionOf(event: RequestEvent): Promise<DecodedSession | null> {
 	const cookie = SESSION_COOKIES.map((name) => event.cookies.get(name)).find(Boolean);
 	if (!cookie) {
 		// A session too large for one cookie comes in numbered chunks: let Auth.js join them.
@@ -135,17 +146,15 @@ async function sessionUserId(event: RequestEvent): Promise<string | null> {
 			.getAll()
 			.some((c) => SESSION_COOKIES.some((name) => c.name.startsWith(`${name}.`)));
 		if (!chunked) return null;
-		const session = await event.locals.auth();
-		return session?.user?.id ?? null;
+		return decoded(await event.locals.auth());
 	}
 	const now = Date.now();
 	const known = sessions.get(cookie);
-	if (known && known.until > now) return known.userId;
-	const session = await event.locals.auth();
-	const userId = session?.user?.id ?? null;
+	if (known && known.until > now) return known.session;
+	const session = decoded(await event.locals.auth());
 	if (sessions.size > 5000) sessions.clear();
-	sessions.set(cookie, { userId, until: now + SESSION_CACHE_MS });
-	return userId;
+	sessions.set(cookie, { session, until: now + SESSION_CACHE_MS });
+	return session;
 }
 
 async function identify(event: RequestEvent): Promise<App.Locals['user']> {
@@ -153,8 +162,8 @@ async function identify(event: RequestEvent): Promise<App.Locals['user']> {
 	if (header?.startsWith('Bearer ') && event.url.pathname.startsWith('/api/')) {
 		return users.principalFromToken(header.slice(7).trim());
 	}
-	const userId = await sessionUserId(event);
-	return userId ? users.principal(userId) : null;
+	const session = await sessionOf(event);
+	return session ? users.sessionPrincipal(session.userId, session.generation) : null;
 }
 
 /**
