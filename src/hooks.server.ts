@@ -1,6 +1,6 @@
 import { error, json, type Handle, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
-import { handle as authentication, type SessionUser } from './auth';
+import { handle as authentication, LINK_PURPOSE_HEADER, type SessionUser } from './auth';
 import { getDb } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as mail from '$lib/server/mail';
@@ -88,17 +88,15 @@ const answerFromTable: Handle = async ({ event, resolve }) => {
 
 /**
  * Password sign-ins posted straight to Auth.js (scripts, integrators) pass the same guard
- * as the sign-in page: slowed after a few failures, then refused with 429.
+ * as the sign-in page: slowed after a few failures, then refused with 429. The address is
+ * read the way Auth.js reads it, so a second `email` field or a JSON body counts the same.
  */
 const guardCredentials: Handle = async ({ event, resolve }) => {
 	if (event.request.method !== 'POST' || event.url.pathname !== '/auth/callback/credentials') {
 		return resolve(event);
 	}
-	const form = await event.request
-		.clone()
-		.formData()
-		.catch(() => null);
-	const attempt = { email: String(form?.get('email') ?? ''), client: clientOf(event) };
+	const fields = await guard.authFields(event.request);
+	const attempt = { email: guard.addressOf(fields.email), client: clientOf(event) };
 	const verdict = guard.check(attempt);
 	if (!verdict.allowed) {
 		guard.refused(attempt);
@@ -115,6 +113,26 @@ const guardCredentials: Handle = async ({ event, resolve }) => {
 	if (location.includes('error=')) guard.failed(attempt);
 	else if (response.status < 400) guard.succeeded(attempt);
 	return response;
+};
+
+/**
+ * Sign-in links asked of Auth.js directly are rationed like those asked on the sign-in page;
+ * over the limit nothing is sent and the answer is the one Auth.js gives when it sends. Only
+ * Tacksheet itself may say a link is an invitation or a reset.
+ */
+const guardLinks: Handle = async ({ event, resolve }) => {
+	if (!event.url.pathname.startsWith('/auth/')) return resolve(event);
+	if (event.request.headers.has(LINK_PURPOSE_HEADER))
+		return refusal(event, 400, 'This header is not taken from outside.');
+	if (event.request.method !== 'POST' || event.url.pathname !== '/auth/signin/nodemailer')
+		return resolve(event);
+	const fields = await guard.authFields(event.request);
+	const attempt = { email: guard.addressOf(fields.email), client: clientOf(event) };
+	if (guard.linkRequested(attempt)) return resolve(event);
+	return new Response(null, {
+		status: 302,
+		headers: { location: `${event.url.origin}/signin/check-email?provider=nodemailer&type=email` }
+	});
 };
 
 const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
@@ -214,6 +232,7 @@ const authorize: Handle = async ({ event, resolve }) => {
 export const handle: Handle = sequence(
 	answerFromTable,
 	guardCredentials,
+	guardLinks,
 	authentication,
 	authorize
 );
