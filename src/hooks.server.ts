@@ -35,6 +35,42 @@ function clientOf(event: RequestEvent): string {
 	}
 }
 
+/**
+ * Headers every answer carries. Pages get their Content-Security-Policy from SvelteKit
+ * (`kit.csp` in svelte.config.js, with a nonce for its inline script); anything else that
+ * has none gets one that lets it run nothing and be framed nowhere.
+ */
+const SECURITY_HEADERS = {
+	'x-content-type-options': 'nosniff',
+	'referrer-policy': 'same-origin',
+	'x-frame-options': 'DENY'
+};
+const HTML_WITHOUT_CSP =
+	"default-src 'self'; style-src 'self' 'unsafe-inline'; object-src 'none'; base-uri 'self'; frame-ancestors 'none'";
+const OTHER_CSP = "default-src 'none'; frame-ancestors 'none'";
+
+const securityHeaders: Handle = async ({ event, resolve }) => {
+	let response = await resolve(event);
+	const headers: Record<string, string> = { ...SECURITY_HEADERS };
+	if (!response.headers.has('content-security-policy')) {
+		const type = response.headers.get('content-type') ?? '';
+		// A PDF opened in the browser's own viewer must stay free to load what that viewer needs.
+		headers['content-security-policy'] = type.startsWith('text/html')
+			? HTML_WITHOUT_CSP
+			: type.startsWith('application/pdf')
+				? "frame-ancestors 'none'"
+				: OTHER_CSP;
+	}
+	try {
+		for (const [name, value] of Object.entries(headers)) response.headers.set(name, value);
+	} catch {
+		// Some answers (a redirect made by Response.redirect) have read-only headers: copy them.
+		response = new Response(response.body, response);
+		for (const [name, value] of Object.entries(headers)) response.headers.set(name, value);
+	}
+	return response;
+};
+
 /** adapter-node's limit on an ordinary request body (`BODY_SIZE_LIMIT`, default 512K). */
 function bodySizeLimit(): number {
 	const value = (process.env.BODY_SIZE_LIMIT || '512K').trim();
@@ -230,6 +266,7 @@ const authorize: Handle = async ({ event, resolve }) => {
 };
 
 export const handle: Handle = sequence(
+	securityHeaders,
 	answerFromTable,
 	guardCredentials,
 	guardLinks,
