@@ -15,8 +15,10 @@ import { can, canGlobal, isMember } from '$lib/permissions';
 export const init: ServerInit = async () => {
 	const db = getDb();
 	if (mail.usingStandIn()) await mail.startStandIn();
-	// Exports a crash left running can never finish: say so before anyone waits on them.
+	// Exports a crash left running can never finish: say so before anyone waits on them, and
+	// remove the zips they were writing.
 	exportJobs.recoverInterrupted();
+	await exportJobs.removeUnfinished();
 	// Turnover zips past EXPORT_KEEP_DAYS go now and every hour after; their records stay.
 	exportJobs.startCleanup();
 	const result = await seedIfEmpty(db);
