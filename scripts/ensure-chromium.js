@@ -34,10 +34,12 @@ export function plan({ found, explicit, root, aptGet, sudo }) {
 	};
 }
 
+/** @param {string} command */
 function onPath(command) {
 	return spawnSync('sh', ['-c', `command -v ${command}`], { stdio: 'ignore' }).status === 0;
 }
 
+/** @param {string} file */
 function executable(file) {
 	try {
 		fs.accessSync(file, fs.constants.X_OK);
@@ -47,6 +49,10 @@ function executable(file) {
 	}
 }
 
+/**
+ * @param {boolean} sudo
+ * @param {string[]} args
+ */
 function run(sudo, args) {
 	const command = sudo ? ['sudo', '-n', ...args] : args;
 	console.log(`$ ${command.join(' ')}`);
