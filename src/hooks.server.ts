@@ -1,5 +1,6 @@
 import { error, json, type Handle, type RequestEvent, type ServerInit } from '@sveltejs/kit';
 import { sequence } from '@sveltejs/kit/hooks';
+import { getToken } from '@auth/core/jwt';
 import { handle as authentication, LINK_PURPOSE_HEADER, type SessionUser } from './auth';
 import { getDb } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
@@ -173,6 +174,25 @@ const guardLinks: Handle = async ({ event, resolve }) => {
 	});
 };
 
+/**
+ * Auth.js's own session endpoint (`GET /auth/session`) decodes the cookie by itself: it must
+ * not vouch for a session that sign-out, a password change, a reset or a disable has ended.
+ */
+const endedSessions: Handle = async ({ event, resolve }) => {
+	if (event.url.pathname !== '/auth/session') return resolve(event);
+	const token = await getToken({
+		req: event.request,
+		secret: process.env.AUTH_SECRET,
+		secureCookie: event.url.protocol === 'https:'
+	});
+	if (
+		token?.sub &&
+		!users.sessionPrincipal(token.sub, typeof token.gen === 'number' ? token.gen : 0)
+	)
+		return json(null, { headers: { 'cache-control': 'no-store' } });
+	return resolve(event);
+};
+
 const SESSION_COOKIES = ['__Secure-authjs.session-token', 'authjs.session-token'];
 /** How long a decoded session cookie is trusted before Auth.js reads it again. */
 const SESSION_CACHE_MS = 30_000;
@@ -219,7 +239,14 @@ async function identify(event: RequestEvent): Promise<App.Locals['user']> {
 		return users.principalFromToken(header.slice(7).trim());
 	}
 	const session = await sessionOf(event);
-	return session ? users.sessionPrincipal(session.userId, session.generation) : null;
+	if (!session) return null;
+	const user = users.sessionPrincipal(session.userId, session.generation);
+	// A session that has ended: the browser may as well forget its cookie.
+	if (!user)
+		for (const name of SESSION_COOKIES)
+			if (event.cookies.get(name))
+				event.cookies.delete(name, { path: '/', secure: name.startsWith('__Secure-') });
+	return user;
 }
 
 /**
@@ -272,6 +299,7 @@ export const handle: Handle = sequence(
 	answerFromTable,
 	guardCredentials,
 	guardLinks,
+	endedSessions,
 	authentication,
 	authorize
 );

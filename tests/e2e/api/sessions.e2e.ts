@@ -91,6 +91,7 @@ test('signing out ends that session and every other session of the person', asyn
 	});
 	expect(out.status()).toBeLessThan(400);
 	expect(await me(kept), 'the cookie kept from before the sign-out').toBe(401);
+	expect(await (await kept.get('/auth/session')).json(), "Auth.js's session endpoint").toBeNull();
 	expect(await me(elsewhere), 'a session on another device').toBe(401);
 	const again = await signedInClient(PERSON, PASSWORD);
 	expect(await me(again)).toBe(200);
