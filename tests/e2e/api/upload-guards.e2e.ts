@@ -34,7 +34,11 @@ test('a PDF with no drawing in it → 422, whether it has no pages or one blank 
 		['no pages', handWrittenPdf({ pages: 0 })],
 		['one blank default page', await emptyDocumentPdf()]
 	] as const) {
-		const response = await upload('/api/projects/1/drawings', newDrawing(`GUARD-${name}`), bytes);
+		const response = await upload(
+			'/api/projects/1/drawings',
+			newDrawing(`LBM-20-X-GUARD-${name.replaceAll(' ', '-')}`),
+			bytes
+		);
 		expect(response.status(), name).toBe(422);
 		expect((await response.json()).error, name).toMatch(/no pages|blank/);
 	}
@@ -43,7 +47,7 @@ test('a PDF with no drawing in it → 422, whether it has no pages or one blank 
 test('a sheet of 1e9 × 1e9 pt → 422 naming the largest sheet allowed', async () => {
 	const response = await upload(
 		'/api/projects/1/drawings',
-		newDrawing('GUARD-HUGE'),
+		newDrawing('LBM-20-X-GUARD-HUGE'),
 		handWrittenPdf({ width: 1e9, height: 1e9 })
 	);
 	expect(response.status()).toBe(422);
@@ -53,10 +57,12 @@ test('a sheet of 1e9 × 1e9 pt → 422 naming the largest sheet allowed', async 
 test('20,000 pages → 422 naming the page limit, while the server keeps answering', async () => {
 	const bytes = handWrittenPdf({ pages: 20_000 });
 	let answered = false;
-	const refused = upload('/api/projects/1/drawings', newDrawing('GUARD-MANY'), bytes).then((r) => {
-		answered = true;
-		return r;
-	});
+	const refused = upload('/api/projects/1/drawings', newDrawing('LBM-20-X-GUARD-MANY'), bytes).then(
+		(r) => {
+			answered = true;
+			return r;
+		}
+	);
 	const anonymous = await newRequest.newContext({ baseURL: BASE_URL });
 	// Health is asked once the upload is under way, and answers before the upload does.
 	await new Promise((r) => setTimeout(r, 300));
@@ -73,7 +79,9 @@ test('one drawing number sent four times at once → one 201, three 409', async 
 	const files = await Promise.all([1, 2, 3, 4].map((i) => drawingPdf({ label: `PARALLEL ${i}` })));
 	const statuses = await Promise.all(
 		files.map(async (bytes) =>
-			(await upload('/api/projects/1/drawings', newDrawing('GUARD-PARALLEL'), bytes)).status()
+			(
+				await upload('/api/projects/1/drawings', newDrawing('LBM-20-X-GUARD-PARALLEL'), bytes)
+			).status()
 		)
 	);
 	expect(statuses.sort()).toEqual([201, 409, 409, 409]);
@@ -82,7 +90,7 @@ test('one drawing number sent four times at once → one 201, three 409', async 
 test('one revision label, or the identical file, sent at once → one 201, the rest 409', async () => {
 	const created = await upload(
 		'/api/projects/1/drawings',
-		newDrawing('GUARD-REVISIONS'),
+		newDrawing('LBM-20-X-GUARD-REVISIONS'),
 		await drawingPdf({ label: 'GUARD REV 0' })
 	);
 	expect(created.status()).toBe(201);
@@ -101,10 +109,15 @@ test('one revision label, or the identical file, sent at once → one 201, the r
 
 test("a browser's cookie with another site's Origin is refused, whatever Authorization says", async () => {
 	const bytes = await drawingPdf({ label: 'CROSS SITE' });
-	const response = await upload('/api/projects/1/drawings', newDrawing('GUARD-CROSS'), bytes, {
-		origin: 'http://elsewhere.test',
-		authorization: 'Basic ZG9jY29uOng='
-	});
+	const response = await upload(
+		'/api/projects/1/drawings',
+		newDrawing('LBM-20-X-GUARD-CROSS'),
+		bytes,
+		{
+			origin: 'http://elsewhere.test',
+			authorization: 'Basic ZG9jY29uOng='
+		}
+	);
 	expect(response.status()).toBe(403);
 	// A script with a personal API token and no cookie needs no Origin.
 	const tokenAnswer = await doccon.post('/api/tokens', {
@@ -115,7 +128,7 @@ test("a browser's cookie with another site's Origin is refused, whatever Authori
 	const script = await newRequest.newContext({ baseURL: BASE_URL });
 	const scripted = await upload(
 		'/api/projects/1/drawings',
-		newDrawing('GUARD-SCRIPTED'),
+		newDrawing('LBM-20-X-GUARD-SCRIPTED'),
 		bytes,
 		{ authorization: `Bearer ${token}` },
 		script
