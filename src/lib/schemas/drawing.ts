@@ -37,7 +37,7 @@ export const DRAWING_STATUSES = ['open', 'complete', 'review', 'empty'] as const
 export const DRAWING_SORTS = ['number', 'title', 'kind', 'area', 'revised'] as const;
 
 export const drawingListQuery = z.object({
-	q: z.string().trim().max(80).default(''),
+	q: z.string().trim().max(80, { error: 'Search for at most 80 characters.' }).default(''),
 	kind: z.enum(DRAWING_KINDS).optional().catch(undefined),
 	area: z.string().trim().max(80).optional().catch(undefined),
 	status: z.enum(DRAWING_STATUSES).optional().catch(undefined),

@@ -16,6 +16,12 @@ function days(value: string | undefined, fallback: number): number {
 	return Number.isInteger(n) && n >= 0 ? n : fallback;
 }
 
+/** A whole number from 1; anything else falls back. */
+function count(value: string | undefined, fallback: number): number {
+	const n = Number(value);
+	return Number.isInteger(n) && n >= 1 ? n : fallback;
+}
+
 function megabytes(value: string | undefined, fallback: number): number {
 	const n = Number(value);
 	return Number.isFinite(n) && n > 0 ? n : fallback;
@@ -35,6 +41,10 @@ export const config = {
 	smtpUrl: process.env.SMTP_URL || '',
 	mailFrom: process.env.MAIL_FROM || 'Tacksheet <no-reply@tacksheet.test>',
 	uploadMaxMb: megabytes(process.env.UPLOAD_MAX_MB, 200),
+	/** Most pages an uploaded drawing may have; a set of sheets larger than this is split. */
+	uploadMaxPages: count(process.env.UPLOAD_MAX_PAGES, 500),
+	/** Longest time the check of one uploaded PDF may take before it is refused. */
+	uploadCheckSeconds: count(process.env.UPLOAD_CHECK_SECONDS, 120),
 	/** Days a finished turnover zip is kept; 0 keeps every zip until a person removes it. */
 	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30)
 };

@@ -25,6 +25,9 @@ const j = schema.joints;
 
 const current = and(eq(r.drawingId, d.id), eq(r.status, 'current'));
 
+/** Upload writes take the write lock at BEGIN, so their duplicate checks hold across processes. */
+const IMMEDIATE = { behavior: 'immediate' } as const;
+
 function liveJointsWhere(extra?: SQL) {
 	return db
 		.select({ one: sql`1` })
@@ -283,6 +286,20 @@ export function revisionJson(rev: NonNullable<ReturnType<typeof revision>>) {
 type NewDrawing = z.infer<typeof newDrawingSchema>;
 type NewRevision = z.infer<typeof newRevisionSchema>;
 
+/**
+ * A unique index that refused a row another upload wrote first (a second server process):
+ * the same 409 the checks give, never a 500.
+ */
+function asConflict(error: unknown): unknown {
+	const code = (error as { code?: unknown } | null)?.code;
+	if (typeof code === 'string' && code.startsWith('SQLITE_CONSTRAINT_UNIQUE'))
+		return new DrawingError(
+			'Another upload registered the same drawing number or revision label first. Reload the register and check.',
+			409
+		);
+	return error;
+}
+
 /** Refused uploads leave nothing behind: the staged file is removed on every failure path. */
 async function checkedPdf(staged: StagedUpload) {
 	const inspected = await inspectPdf(staged.tempPath);
@@ -364,6 +381,19 @@ export async function create(
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
 		return db.transaction((tx) => {
+			// Checked again here: another upload of the same number may have landed while this
+			// file was being read, and nothing else can run between this check and the insert.
+			if (
+				tx
+					.select({ id: d.id })
+					.from(d)
+					.where(and(eq(d.projectId, projectId), eq(d.number, input.number)))
+					.get()
+			)
+				throw new DrawingError(
+					`Drawing ${input.number} was registered meanwhile. Upload the file as a new revision of it instead.`,
+					409
+				);
 			const drawing = tx
 				.insert(d)
 				.values({
@@ -396,10 +426,10 @@ export async function create(
 				tx
 			);
 			return { drawing, revisionId: created.id };
-		});
+		}, IMMEDIATE);
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
-		throw error;
+		throw asConflict(error);
 	} finally {
 		await storage.removePath(staged.tempPath);
 	}
@@ -438,6 +468,22 @@ export async function addRevision(
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
 		const result = db.transaction((tx) => {
+			// Checked again here, where nothing else can run before the insert: another upload
+			// of the same label or the same file may have landed while this one was being read.
+			const clash = tx
+				.select({ label: r.label, sha256: r.sha256 })
+				.from(r)
+				.where(
+					and(eq(r.drawingId, drawingId), or(eq(r.label, input.label), eq(r.sha256, staged.sha256)))
+				)
+				.get();
+			if (clash)
+				throw new DrawingError(
+					clash.label === input.label
+						? `Drawing ${drawing.number} already has a revision ${input.label}. Use the next label.`
+						: `This very file is already stored as revision ${clash.label} of ${drawing.number}.`,
+					409
+				);
 			const previous = tx
 				.select()
 				.from(r)
@@ -497,7 +543,7 @@ export async function addRevision(
 				tx
 			);
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
-		});
+		}, IMMEDIATE);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',
@@ -508,7 +554,7 @@ export async function addRevision(
 		return result;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
-		throw error;
+		throw asConflict(error);
 	} finally {
 		await storage.removePath(staged.tempPath);
 	}

@@ -86,6 +86,18 @@ export function recoverInterrupted(): number {
 	return stale.length;
 }
 
+/**
+ * Zips a stopped server left half-written (`*.part`): nothing can finish them, and their
+ * export is marked failed by `recoverInterrupted`. Run at start, before any job of this process.
+ */
+export async function removeUnfinished(): Promise<number> {
+	const folder = path.dirname(storage.pathOf('exports/x'));
+	const names = await fsp.readdir(folder).catch(() => [] as string[]);
+	const partial = names.filter((name) => name.endsWith('.part'));
+	for (const name of partial) await storage.remove(`exports/${name}`);
+	return partial.length;
+}
+
 /** On first use, not at import: the production build imports this module without a database. */
 function recoverOnce() {
 	if (!runner.recovered) recoverInterrupted();

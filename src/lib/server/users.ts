@@ -1,6 +1,6 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
 import crypto from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
+import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import { hashPassword, verifyPassword } from './passwords';
@@ -62,6 +62,40 @@ export function principal(userId: string): SignedInUser | null {
 		hasPassword: user.passwordHash != null,
 		roles: Object.fromEntries(rows.map((r) => [r.projectId, r.role]))
 	};
+}
+
+/**
+ * The caller behind a session cookie: as `principal`, and only while the session's
+ * generation is the user's current one (sign-out, a password change or reset and disabling
+ * the account raise it). A cookie from before carries no generation and counts as 0.
+ */
+export function sessionPrincipal(userId: string, generation: number): SignedInUser | null {
+	const user = byId(userId);
+	if (!user || user.sessionGeneration !== generation) return null;
+	return principal(userId);
+}
+
+export function sessionGeneration(userId: string): number {
+	return byId(userId)?.sessionGeneration ?? 0;
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+/** Ends every session the user has now; the next sign-in starts a new generation. */
+export function endSessions(userId: string, tx: Tx | typeof db = db): void {
+	tx.update(schema.users)
+		.set({ sessionGeneration: sql`${schema.users.sessionGeneration} + 1` })
+		.where(eq(schema.users.id, userId))
+		.run();
+}
+
+/** Revokes every live personal API token of the user; returns how many. */
+function revokeAllTokens(userId: string, tx: Tx): number {
+	return tx
+		.update(schema.apiTokens)
+		.set({ revokedAt: Date.now() })
+		.where(and(eq(schema.apiTokens.userId, userId), isNull(schema.apiTokens.revokedAt)))
+		.run().changes;
 }
 
 export function list() {
@@ -145,6 +179,9 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 			.set({ disabledAt: disabled ? Date.now() : null })
 			.where(eq(schema.users.id, userId))
 			.run();
+		// Enabling again does not bring back what disabling ended: the person signs in anew.
+		const tokensRevoked = disabled ? revokeAllTokens(userId, tx) : 0;
+		if (disabled) endSessions(userId, tx);
 		audit.record(
 			{
 				action: disabled ? 'disable' : 'enable',
@@ -152,7 +189,7 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 				entityId: userId,
 				userId: actorId,
 				before: { disabled: user.disabledAt != null },
-				after: { disabled }
+				after: disabled ? { disabled, tokensRevoked } : { disabled }
 			},
 			tx
 		);
@@ -160,12 +197,18 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 	return user;
 }
 
-/** Clears the password; the person signs in with an e-mailed link and chooses a new one. */
+/**
+ * Clears the password; the person signs in with an e-mailed link and chooses a new one. A
+ * reset is what is done for an account that may be in other hands, so it also ends every
+ * session and revokes every personal API token.
+ */
 export function resetPassword(userId: string, actorId: string) {
 	const user = byId(userId);
 	if (!user) throw new AccountError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash: null }).where(eq(schema.users.id, userId)).run();
+		endSessions(userId, tx);
+		const tokensRevoked = revokeAllTokens(userId, tx);
 		audit.record(
 			{
 				action: 'password_reset',
@@ -173,7 +216,7 @@ export function resetPassword(userId: string, actorId: string) {
 				entityId: userId,
 				userId: actorId,
 				before: { hasPassword: user.passwordHash != null },
-				after: { hasPassword: false }
+				after: { hasPassword: false, tokensRevoked }
 			},
 			tx
 		);
@@ -188,8 +231,11 @@ export async function changePassword(userId: string, current: string, next: stri
 		throw new AccountError('Your current password is not right.', 400);
 	}
 	const passwordHash = await hashPassword(next);
+	// Every session ends, this one too (the caller signs it in again); personal API tokens are
+	// the person's own keys for scripts and stay until revoked.
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash }).where(eq(schema.users.id, userId)).run();
+		endSessions(userId, tx);
 		audit.record(
 			{
 				action: 'password_change',

@@ -12,6 +12,7 @@
 import type { Writable } from 'node:stream';
 import { once } from 'node:events';
 import ExcelJS from 'exceljs';
+import { csvLine, csvRows } from './csv';
 import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
@@ -318,11 +319,6 @@ export function* iterate(projectId: number, filter: WeldLogFilter): Generator<We
 		yield* rowsOf(ids.slice(start, start + CHUNK));
 }
 
-function csvField(value: string | number): string {
-	const text = String(value);
-	return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
-}
-
 async function write(writable: Writable, text: string): Promise<void> {
 	if (!writable.write(text)) await once(writable, 'drain');
 }
@@ -334,17 +330,16 @@ export async function writeCsv(
 	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS
 ): Promise<void> {
 	// A byte-order mark, so a spreadsheet opened by double-click reads the file as UTF-8.
-	await write(writable, '\uFEFF' + columns.map((c) => csvField(c.header)).join(',') + '\r\n');
-	let batch = '';
-	let n = 0;
+	await write(writable, '\uFEFF' + csvLine(columns.map((c) => c.header)));
+	let batch: (string | number)[][] = [];
 	for (const row of rows) {
-		batch += columns.map((c) => csvField(c.value(row))).join(',') + '\r\n';
-		if (++n % 500 === 0) {
-			await write(writable, batch);
-			batch = '';
+		batch.push(columns.map((c) => c.value(row)));
+		if (batch.length === 500) {
+			await write(writable, csvRows(batch));
+			batch = [];
 		}
 	}
-	if (batch) await write(writable, batch);
+	if (batch.length > 0) await write(writable, csvRows(batch));
 	writable.end();
 	await once(writable, 'finish');
 }

@@ -83,6 +83,11 @@ export const users = sqliteTable('users', {
 	passwordHash: text('password_hash'),
 	isAdmin: integer('is_admin', { mode: 'boolean' }).notNull().default(false),
 	disabledAt: integer('disabled_at'),
+	/**
+	 * Raised by sign-out, a password change or reset and disabling the account: a session
+	 * signed with an older number is over, whatever its cookie still says.
+	 */
+	sessionGeneration: integer('session_generation').notNull().default(0),
 	createdAt: createdAt()
 });
 

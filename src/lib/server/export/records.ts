@@ -5,6 +5,7 @@
 import { PassThrough, type Writable } from 'node:stream';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from '../db';
+import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
 import { weldLogFilter } from '$lib/schemas/weld-log';
 import { displayWeldNumber } from '$lib/joint-state';
@@ -84,13 +85,6 @@ const HEADERS = [
 	'Corrects record'
 ];
 
-/** RFC 4180 quoting, and a leading quote on text a spreadsheet would run as a formula. */
-function field(value: string | number | null | undefined): string {
-	let text = value == null ? '' : String(value);
-	if (/^[=+@\t\r]/.test(text)) text = `'${text}`;
-	return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
-}
-
 function shownValue(value: number | boolean | null, unit: string | null): string {
 	if (value === null) return '';
 	if (typeof value === 'boolean') return value ? 'yes' : 'no';
@@ -107,7 +101,7 @@ const CHUNK = 2000;
 export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
 	const i = schema.inspections;
 	const j = schema.joints;
-	const lines: string[] = [HEADERS.map(field).join(',')];
+	const lines: string[] = [csvLine(HEADERS)];
 	const ids = drawings.map((d) => d.id);
 	const numberOf = new Map(drawings.map((d) => [d.id, d.number]));
 	for (let start = 0; start < ids.length; start += CHUNK) {
@@ -156,7 +150,7 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 		);
 		for (const row of rows) {
 			lines.push(
-				[
+				csvLine([
 					numberOf.get(row.drawingId) ?? '',
 					displayWeldNumber(row.number, row.repairCycle),
 					row.stage,
@@ -180,11 +174,9 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						: '',
 					row.id,
 					row.supersedesId ?? ''
-				]
-					.map(field)
-					.join(',')
+				])
 			);
 		}
 	}
-	return Buffer.from('\uFEFF' + lines.join('\r\n') + '\r\n', 'utf8');
+	return Buffer.from('\uFEFF' + lines.join(''), 'utf8');
 }

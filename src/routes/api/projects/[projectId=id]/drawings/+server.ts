@@ -7,8 +7,9 @@ import type { RequestHandler } from './$types';
 
 /** The register: `?q=&kind=&area=&status=&sort=&dir=&page=&pageSize=`. */
 export const GET: RequestHandler = ({ locals, url }) => {
-	const query = drawingListQuery.parse(queryOf(url));
-	const page = drawings.list(locals.projectId!, query);
+	const query = drawingListQuery.safeParse(queryOf(url));
+	if (!query.success) return invalid(query);
+	const page = drawings.list(locals.projectId!, query.data);
 	return json({
 		...page,
 		items: page.items.map(
