@@ -9,7 +9,7 @@ import * as audit from './audit';
 import * as events from './events';
 import * as mail from './mail';
 import * as mailTemplates from './mail-templates';
-import { JointError } from './joints';
+import { DomainError } from './errors';
 import { displayWeldNumber, STATE_LOOKS, type InspectionStage } from '$lib/joint-state';
 import { REQUESTABLE_STATES, type RequestStage } from '$lib/outstanding';
 import type { InspectionRequestInput } from '$lib/schemas/outstanding';
@@ -37,7 +37,7 @@ function projectInspectors(projectId: number) {
 
 /**
  * Request an inspection of the given joints. Every joint must be on the project, in a state
- * that stage inspects, and without an open request: else a JointError (404, 409) naming it.
+ * that stage inspects, and without an open request: else a DomainError (404, 409) naming it.
  */
 export function create(projectId: number, input: InspectionRequestInput, userId: string) {
 	const ids = [...new Set(input.jointIds)];
@@ -57,13 +57,13 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 			.all();
 		const missing = ids.filter((id) => !rows.some((row) => row.id === id));
 		if (missing.length > 0) {
-			throw new JointError(`Joint ${missing.join(', ')} is not on this project.`, 404, 'jointIds');
+			throw new DomainError(`Joint ${missing.join(', ')} is not on this project.`, 404, 'jointIds');
 		}
 		const name = (row: (typeof rows)[number]) =>
 			`weld ${displayWeldNumber(row.number, row.repairCycle)} on ${row.drawingNumber}`;
 		for (const row of rows) {
 			if (!REQUESTABLE_STATES[input.stage].includes(row.state)) {
-				throw new JointError(
+				throw new DomainError(
 					`Cannot request a ${STAGE_WORDS[input.stage]} inspection of ${name(row)}: it is ${STATE_LOOKS[row.state].label.toLowerCase()} (next: ${STATE_LOOKS[row.state].next.toLowerCase()}).`,
 					409,
 					'jointIds'
@@ -77,7 +77,7 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 			.all();
 		if (open.length > 0) {
 			const row = rows.find((x) => x.id === open[0].jointId)!;
-			throw new JointError(
+			throw new DomainError(
 				`A ${STAGE_WORDS[input.stage]} inspection of ${name(row)} is already requested (since ${new Date(open[0].requestedAt).toISOString().slice(0, 16).replace('T', ' ')} UTC).`,
 				409,
 				'jointIds'

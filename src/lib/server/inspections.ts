@@ -10,7 +10,8 @@ import * as audit from './audit';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
-import { JointError, refreshState, row, stateInput } from './joints';
+import { DomainError } from './errors';
+import { refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
 	getCriteriaSet,
@@ -79,8 +80,8 @@ export function storedReadings(texts: ReadingTexts, units: UnitSystem): StoredRe
 	return stored;
 }
 
-function unknownCriteriaSet(criteriaSetId: string): JointError {
-	return new JointError(
+function unknownCriteriaSet(criteriaSetId: string): DomainError {
+	return new DomainError(
 		`The joint's criteria set "${criteriaSetId}" is neither a built-in set nor one of the project's own; choose a criteria set on the joint card first.`,
 		409,
 		'criteriaSetId'
@@ -95,7 +96,7 @@ function criteriaWords(set: CriteriaSet): string {
 
 /**
  * The engine's verdict on a set of readings, in the shape an inspection row stores: by a set,
- * or a built-in set named by its id. An unreadable reading is a JointError 400 naming the
+ * or a built-in set named by its id. An unreadable reading is a DomainError 400 naming the
  * field (`readings.undercutDepth`).
  */
 export function judgeReadings(
@@ -110,7 +111,7 @@ export function judgeReadings(
 	const result = evaluate(set, joint, stage, texts, { units });
 	if (!result.ok) {
 		const [first] = result.errors;
-		throw new JointError(first.message, 400, first.field);
+		throw new DomainError(first.message, 400, first.field);
 	}
 	return {
 		readings: storedReadings(texts, units),
@@ -180,7 +181,7 @@ function checkStageOrder(
 	const cycle = derived.repairCycle;
 	if (input.stage === 'fitup') {
 		if (welded) {
-			throw new JointError(
+			throw new DomainError(
 				correcting
 					? `Joint ${label} has been welded since that fit-up record; it stands as it was, and the weld's own inspections follow.`
 					: `Joint ${label} is already welded (${STATE_LOOKS[derived.state].label.toLowerCase()}); fit-up is inspected before welding. Record a visual inspection of the weld instead.`,
@@ -195,7 +196,7 @@ function checkStageOrder(
 			derived.state === 'ready_to_weld'
 				? 'the foreman records the weld with the welder stamps first'
 				: 'its fit-up must be accepted and the weld recorded first';
-		throw new JointError(
+		throw new DomainError(
 			`Joint ${label} has not been welded yet: ${next}, then the ${stageName(input.stage, input.method)} result can be recorded.`,
 			409,
 			'stage'
@@ -221,7 +222,7 @@ function checkStageOrder(
 				visual.decision === 'reject'
 					? ` It was rejected: the repair weld (${displayWeldNumber(joint.number, cycle + 1)}) comes next, and its own visual after it.`
 					: '';
-			throw new JointError(
+			throw new DomainError(
 				`Weld ${label} already has a visual result (${describe(visual)}).${then} To change that result, record a correction that supersedes it.`,
 				409,
 				'stage'
@@ -230,7 +231,7 @@ function checkStageOrder(
 		return;
 	}
 	if (!visual || visual.decision !== 'accept') {
-		throw new JointError(
+		throw new DomainError(
 			visual
 				? `The visual inspection of weld ${label} was rejected (${describe(visual)}): the weld is repaired before any NDE.`
 				: `Weld ${label} has no accepted visual inspection yet: NDE comes after the visual is accepted.`,
@@ -241,7 +242,7 @@ function checkStageOrder(
 	const method = input.method!;
 	if (!state.ndeMethods.includes(method)) {
 		const asked = state.ndeMethods.length ? state.ndeMethods.join(', ') : 'none';
-		throw new JointError(
+		throw new DomainError(
 			`${method} is not asked of joint ${label} (required or selected: ${asked}). Select the joint for ${method} first, so the result counts toward its state.`,
 			409,
 			'method'
@@ -249,7 +250,7 @@ function checkStageOrder(
 	}
 	const nde = previous((r) => r.stage === 'nde' && r.method === method);
 	if (nde) {
-		throw new JointError(
+		throw new DomainError(
 			`Weld ${label} already has a ${method} result (${describe(nde)}). To change it, record a correction that supersedes it.`,
 			409,
 			'stage'
@@ -262,14 +263,14 @@ function supersededRow(tx: Tx, joint: Joint, input: RecordInspection, derived: D
 	const id = input.supersedes!;
 	const old = tx.select().from(i).where(eq(i.id, id)).get();
 	if (!old || old.jointId !== joint.id) {
-		throw new JointError(
+		throw new DomainError(
 			`Inspection #${id} is not a record of joint ${joint.number}.`,
 			400,
 			'supersedes'
 		);
 	}
 	if (old.stage !== input.stage || (old.stage === 'nde' && old.method !== input.method)) {
-		throw new JointError(
+		throw new DomainError(
 			`Inspection #${id} is a ${stageName(old.stage, old.method)} record; a correction keeps the stage${old.method ? ' and method' : ''} of the record it replaces.`,
 			400,
 			'supersedes'
@@ -281,14 +282,14 @@ function supersededRow(tx: Tx, joint: Joint, input: RecordInspection, derived: D
 		.where(and(eq(i.jointId, joint.id), eq(i.supersedesId, id)))
 		.get();
 	if (later) {
-		throw new JointError(
+		throw new DomainError(
 			`Inspection #${id} has already been corrected by #${later.id}; correct #${later.id} instead.`,
 			409,
 			'supersedes'
 		);
 	}
 	if (old.stage !== 'fitup' && old.repairCycle !== derived.repairCycle) {
-		throw new JointError(
+		throw new DomainError(
 			`Inspection #${id} belongs to weld ${displayWeldNumber(joint.number, old.repairCycle)}; the joint has since been repaired (${displayWeldNumber(joint.number, derived.repairCycle)}), so that record stands as it was.`,
 			409,
 			'supersedes'
@@ -363,22 +364,22 @@ export function jointSummary(joint: Joint) {
 
 /**
  * Record an inspection result on a joint, signed by the inspector, in one transaction with
- * the joint's state and version. Expected failures are JointErrors: 400 for input that cannot
+ * the joint's state and version. Expected failures are DomainErrors: 400 for input that cannot
  * be read or a missing reason, 404 for no joint, 409 for a step out of order.
  */
 export function record(jointId: number, input: RecordInspection, inspectorId: string) {
 	return db.transaction((tx) => {
 		const joint = row(jointId, tx);
-		if (!joint) throw new JointError('There is no such joint.', 404);
+		if (!joint) throw new DomainError('There is no such joint.', 404);
 		if (input.version !== undefined && input.version !== joint.version) {
-			throw new JointError(
+			throw new DomainError(
 				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
 				409,
 				'version'
 			);
 		}
 		if (joint.voidedAt) {
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
 				409
 			);
@@ -391,7 +392,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 
 		const reason = input.reason?.trim() || null;
 		if (correcting && (reason === null || reason.length < 3)) {
-			throw new JointError(
+			throw new DomainError(
 				`Say why inspection #${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
 				400,
 				'reason'
@@ -403,7 +404,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			(input.decision === 'reject' && verdict.verdict === 'within');
 		if (againstVerdict && (reason === null || reason.length < 3)) {
 			const standard = verdict.set ? criteriaWords(verdict.set) : 'the code';
-			throw new JointError(
+			throw new DomainError(
 				verdict.verdict === 'outside'
 					? `The readings are outside the limits of ${standard}. To accept anyway, write the reason; the record is flagged as a decision against the verdict.`
 					: `The readings are within the limits of ${standard}. To reject anyway, write the reason; the record is flagged as a decision against the verdict.`,

@@ -3,6 +3,7 @@
  * derived from the records and cached in the same transaction as every change. Every write
  * names the version it was based on; a stale one is refused with 409.
  */
+import { DomainError } from './errors';
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
@@ -27,16 +28,6 @@ import type { UnitSystem } from './db/schema';
 
 type Reader = Pick<Db, 'select'>;
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-
-export class JointError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409,
-		readonly field?: string
-	) {
-		super(message);
-	}
-}
 
 const j = schema.joints;
 const p = schema.pins;
@@ -301,7 +292,7 @@ export function detail(jointId: number) {
 
 function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 	const result = jointLengths(fields, units);
-	if (!result.ok) throw new JointError(result.message, 400, result.field);
+	if (!result.ok) throw new DomainError(result.message, 400, result.field);
 	return result.values;
 }
 
@@ -309,7 +300,7 @@ function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 function checkCriteriaSet(projectId: number, id: string, field: string, tx: Reader) {
 	if (criteriaSets.resolve(projectId, id, undefined, tx)) return;
 	const problem = criteriaSets.unknownSet(projectId, id, field, tx);
-	throw new JointError(problem.message, 400, field);
+	throw new DomainError(problem.message, 400, field);
 }
 
 function numbersOf(drawingId: number, tx: Reader): string[] {
@@ -350,11 +341,11 @@ export function place(input: PlacePin, userId: string) {
 		.innerJoin(schema.projects, eq(schema.projects.id, schema.drawings.projectId))
 		.where(eq(schema.revisions.id, input.revisionId))
 		.get();
-	if (!revision) throw new JointError('There is no such revision.', 404);
+	if (!revision) throw new DomainError('There is no such revision.', 404);
 	if (revision.status !== 'current')
-		throw new JointError('Joints are placed on the current revision only.', 409);
+		throw new DomainError('Joints are placed on the current revision only.', 409);
 	if (input.pageIndex >= revision.pageCount)
-		throw new JointError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
+		throw new DomainError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
 	const location = input.joint.location ?? 'shop';
 	const lengths = lengthsOrThrow(input.joint, revision.units);
 	if (input.joint.criteriaSetId !== undefined) {
@@ -379,7 +370,7 @@ export function place(input: PlacePin, userId: string) {
 		if (!number && input.insertAfter) {
 			number = insertedWeldNumber(input.insertAfter, used) ?? undefined;
 			if (!number)
-				throw new JointError(
+				throw new DomainError(
 					`No letter is left to insert after ${input.insertAfter}.`,
 					409,
 					'insertAfter'
@@ -390,7 +381,7 @@ export function place(input: PlacePin, userId: string) {
 			location === 'field' ? revision.rule.fieldPrefix : revision.rule.shopPrefix
 		);
 		if (used.some((n) => n.toUpperCase() === number!.toUpperCase())) {
-			throw new JointError(
+			throw new DomainError(
 				`Weld number ${number} is already used on this drawing (numbers are never reused, also after a joint is voided).`,
 				409,
 				'number'
@@ -464,9 +455,9 @@ export function place(input: PlacePin, userId: string) {
 
 function lockedJoint(tx: Tx, jointId: number, version: number) {
 	const joint = row(jointId, tx);
-	if (!joint) throw new JointError('There is no such joint.', 404);
+	if (!joint) throw new DomainError('There is no such joint.', 404);
 	if (joint.version !== version) {
-		throw new JointError(
+		throw new DomainError(
 			`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${version}). It has been reloaded; check it and try again.`,
 			409,
 			'version'
@@ -484,7 +475,7 @@ export function update(
 	return db.transaction((tx) => {
 		const joint = lockedJoint(tx, jointId, changes.version);
 		if (joint.voidedAt)
-			throw new JointError(`Joint ${joint.number} is void and can no longer change.`, 409);
+			throw new DomainError(`Joint ${joint.number} is void and can no longer change.`, 409);
 		const { version: _version, size, thickness, requiredSize, number, ...plain } = changes;
 		const lengths = lengthsOrThrow(
 			{ size, thickness, requiredSize },
@@ -495,7 +486,7 @@ export function update(
 		}
 		if (number && number !== joint.number) {
 			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
-				throw new JointError(
+				throw new DomainError(
 					`Weld number ${number} is already used on this drawing.`,
 					409,
 					'number'
@@ -566,7 +557,7 @@ function markVoid(
 export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
 	return db.transaction((tx) => {
 		const joint = lockedJoint(tx, jointId, version);
-		if (joint.voidedAt) throw new JointError(`Joint ${joint.number} is already void.`, 409);
+		if (joint.voidedAt) throw new DomainError(`Joint ${joint.number} is already void.`, 409);
 		const now = Date.now();
 		markVoid(tx, joint, reason, userId, now);
 		audit.record(
@@ -594,7 +585,7 @@ export function voidJoint(jointId: number, reason: string, version: number, user
 
 function pinWithJoint(tx: Tx, pinId: number) {
 	const pin = tx.select().from(p).where(eq(p.id, pinId)).get();
-	if (!pin) throw new JointError('There is no such pin.', 404);
+	if (!pin) throw new DomainError('There is no such pin.', 404);
 	return pin;
 }
 
@@ -613,9 +604,9 @@ export function movePin(
 			.where(eq(schema.revisions.id, pin.revisionId))
 			.get();
 		if (revision?.status !== 'current')
-			throw new JointError('Pins on a superseded revision stay where they were recorded.', 409);
+			throw new DomainError('Pins on a superseded revision stay where they were recorded.', 409);
 		if (joint.voidedAt)
-			throw new JointError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
+			throw new DomainError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
 		const now = Date.now();
 		const moved = tx
 			.update(p)
@@ -729,12 +720,12 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(eq(j.replacesJointId, jointId))
 			.get();
 		if (replaced)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} has already been cut out and replaced by ${replaced.number}.`,
 				409
 			);
 		if (joint.voidedAt)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); a void joint is not cut out.`,
 				409
 			);
@@ -744,7 +735,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(eq(schema.welds.jointId, jointId))
 			.get();
 		if (!welded)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${label} has not been welded, so there is nothing to cut out. Record a new fit-up, or void the joint if it no longer exists.`,
 				409
 			);
@@ -755,7 +746,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(and(eq(p.jointId, jointId), eq(schema.revisions.status, 'current')))
 			.get();
 		if (!pin)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} has no pin on the drawing's current revision; place or review it there first, so the new joint can be pinned at the same point.`,
 				409
 			);

@@ -1,4 +1,5 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
+import { DomainError } from './errors';
 import crypto from 'node:crypto';
 import { and, asc, eq, isNull } from 'drizzle-orm';
 import { db, schema } from './db';
@@ -84,20 +85,11 @@ export function list() {
 	}));
 }
 
-export class AccountError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409
-	) {
-		super(message);
-	}
-}
-
 export function invite(
 	input: { email: string; name: string; projectId?: number; role?: ProjectRole },
 	actorId: string
 ) {
-	if (byEmail(input.email)) throw new AccountError(`${input.email} already has an account.`, 409);
+	if (byEmail(input.email)) throw new DomainError(`${input.email} already has an account.`, 409);
 	return db.transaction((tx) => {
 		const user = tx
 			.insert(schema.users)
@@ -137,9 +129,9 @@ export function invite(
 
 export function setDisabled(userId: string, disabled: boolean, actorId: string) {
 	if (userId === actorId && disabled)
-		throw new AccountError('You cannot disable your own account.', 409);
+		throw new DomainError('You cannot disable your own account.', 409);
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users)
 			.set({ disabledAt: disabled ? Date.now() : null })
@@ -163,7 +155,7 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 /** Clears the password; the person signs in with an e-mailed link and chooses a new one. */
 export function resetPassword(userId: string, actorId: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash: null }).where(eq(schema.users.id, userId)).run();
 		audit.record(
@@ -183,9 +175,9 @@ export function resetPassword(userId: string, actorId: string) {
 
 export async function changePassword(userId: string, current: string, next: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	if (user.passwordHash && !(await verifyPassword(current, user.passwordHash))) {
-		throw new AccountError('Your current password is not right.', 400);
+		throw new DomainError('Your current password is not right.', 400, 'current');
 	}
 	const passwordHash = await hashPassword(next);
 	db.transaction((tx) => {
@@ -333,7 +325,7 @@ export function revokeToken(userId: string, tokenId: number) {
 			audit.record({ action: 'token_revoke', entity: 'api_token', entityId: tokenId, userId }, tx);
 		return result.changes > 0;
 	});
-	if (!done) throw new AccountError('There is no such live token.', 404);
+	if (!done) throw new DomainError('There is no such live token.', 404);
 }
 
 /** The user behind a bearer token, or null for an unknown or revoked one. */

@@ -2,6 +2,7 @@
  * The welder register of a project: stamps, names, qualified processes with their continuity,
  * and each welder's record (welds made, examined, rejected, repair rate on a joint basis).
  */
+import { DomainError } from './errors';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
@@ -10,16 +11,6 @@ import type { QualificationInput, WelderInput } from '$lib/schemas/outstanding';
 
 /** Lapses within this many days are listed so the foreman can renew or reassign in time. */
 export const LAPSE_WARNING_DAYS = 30;
-
-export class WelderError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409,
-		readonly field?: string
-	) {
-		super(message);
-	}
-}
 
 function todayUtc(): string {
 	return new Date().toISOString().slice(0, 10);
@@ -162,7 +153,7 @@ function ownWelder(projectId: number, welderId: number) {
 		.from(schema.welders)
 		.where(and(eq(schema.welders.id, welderId), eq(schema.welders.projectId, projectId)))
 		.get();
-	if (!welder) throw new WelderError('There is no such welder on this project.', 404, 'welderId');
+	if (!welder) throw new DomainError('There is no such welder on this project.', 404, 'welderId');
 	return welder;
 }
 
@@ -180,7 +171,7 @@ export function create(projectId: number, input: WelderInput, userId: string) {
 			)
 			.get();
 		if (taken) {
-			throw new WelderError(
+			throw new DomainError(
 				`Stamp ${taken.stamp} is already ${taken.name}'s on this project; each welder's stamp is unique so every weld traces to one person.`,
 				409,
 				'stamp'

@@ -12,17 +12,12 @@ import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import * as events from './events';
-import { JointError, refreshState, row, stateInput } from './joints';
+import { DomainError } from './errors';
+import { refreshState, row, stateInput } from './joints';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
 import type { RecordWeld } from '$lib/schemas/inspection';
 import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
-
-/** A rule the caller's role does not allow within a route it may use (the override). */
-export class WeldOverrideError extends Error {
-	readonly status = 403;
-	readonly field = 'override';
-}
 
 // Processes -------------------------------------------------------------------------------
 
@@ -272,7 +267,7 @@ function cycleOf(tx: Tx, joint: Joint): { cycle: number; previousOn: string | nu
 			.get();
 		return { cycle: derived.repairCycle + 1, previousOn: previous?.weldedOn ?? null };
 	}
-	throw new JointError(
+	throw new DomainError(
 		`Joint ${displayWeldNumber(joint.number, derived.repairCycle)} ${NOT_READY[derived.state]}`,
 		409
 	);
@@ -346,8 +341,8 @@ function qualificationsOf(tx: Tx, welderIds: number[]) {
 
 /**
  * Record a weld on a joint, with the welder of each pass, in one transaction with the
- * welders' continuity, the joint's state and its version. Expected failures are JointErrors
- * (400 bad input, 404, 409 out of order or a welder refused) or a WeldOverrideError (403).
+ * welders' continuity, the joint's state and its version. Expected failures are DomainErrors
+ * (400 bad input, 404, 409 out of order or a welder refused) or 403 for an override the caller may not make.
  */
 export function record(
 	jointId: number,
@@ -357,16 +352,16 @@ export function record(
 ) {
 	return db.transaction((tx) => {
 		const joint = row(jointId, tx);
-		if (!joint) throw new JointError('There is no such joint.', 404);
+		if (!joint) throw new DomainError('There is no such joint.', 404);
 		if (input.version !== undefined && input.version !== joint.version) {
-			throw new JointError(
+			throw new DomainError(
 				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
 				409,
 				'version'
 			);
 		}
 		if (joint.voidedAt) {
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
 				409
 			);
@@ -377,14 +372,14 @@ export function record(
 		// A day's grace: a site ahead of UTC records today's date before UTC reaches it.
 		const latest = addDays(options.today ?? todayUtc(), 1);
 		if (input.weldedOn > latest) {
-			throw new JointError(
+			throw new DomainError(
 				`The weld date ${input.weldedOn} is in the future; give the day it was welded.`,
 				400,
 				'weldedOn'
 			);
 		}
 		if (previousOn && input.weldedOn < previousOn) {
-			throw new JointError(
+			throw new DomainError(
 				`Repair ${label} cannot be welded before the weld it repairs (${previousOn}).`,
 				400,
 				'weldedOn'
@@ -394,7 +389,7 @@ export function record(
 		const wps = input.wps || joint.wps;
 		const processes = input.process ? passProcesses(input.process) : processFromWps(wps);
 		if (!processes) {
-			throw new JointError(
+			throw new DomainError(
 				input.process
 					? `Cannot read the process "${input.process}": give its letters (GTAW, SMAW, FCAW …) or ISO 4063 number, one for all passes or by pass such as GTAW/SMAW (root, then fill and cap).`
 					: `The WPS ${wps ? `"${wps}" names` : 'is blank and names'} no welding process: give the process, such as "GTAW" or "GTAW/SMAW" (root, then fill and cap).`,
@@ -409,14 +404,14 @@ export function record(
 		const assigned = passes.map((pass) => {
 			const welder = found.get(input.welders[pass]!.toUpperCase());
 			if (!welder) {
-				throw new JointError(
+				throw new DomainError(
 					`No welder with stamp ${input.welders[pass]} is registered on this project; check the stamp, or have the welder added to the register first.`,
 					400,
 					`welders.${pass}`
 				);
 			}
 			if (welder.status !== 'active') {
-				throw new JointError(
+				throw new DomainError(
 					`Welder ${welder.stamp} (${welder.name}) is inactive on this project and cannot be stamped on a weld.`,
 					409,
 					`welders.${pass}`
@@ -446,19 +441,21 @@ export function record(
 		}
 		const problems = uses.filter((u) => !u.check.ok);
 		const hard = problems.find((p) => !p.check.ok && !p.check.overridable);
-		if (hard) throw new JointError(problemText(hard), 409, `welders.${hard.pass}`);
+		if (hard) throw new DomainError(problemText(hard), 409, `welders.${hard.pass}`);
 		if (problems.length > 0) {
 			const told = problems.map(problemText).join(' ');
 			if (!input.override) {
-				throw new JointError(
+				throw new DomainError(
 					`${told} Renew the qualification, or ${user.isAdmin ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
 					409,
 					`welders.${problems[0].pass}`
 				);
 			}
 			if (!user.isAdmin) {
-				throw new WeldOverrideError(
-					`Only an administrator may override a welder qualification check. ${told}`
+				throw new DomainError(
+					`Only an administrator may override a welder qualification check. ${told}`,
+					403,
+					'override'
 				);
 			}
 		}

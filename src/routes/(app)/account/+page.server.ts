@@ -1,6 +1,7 @@
-import { message, setError, superValidate } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as users from '$lib/server/users';
+import { formFailure } from '$lib/server/errors';
 import * as projects from '$lib/server/projects';
 import { changePasswordSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
@@ -33,8 +34,7 @@ export const actions = {
 			await users.changePassword(locals.user!.id, form.data.current, form.data.password);
 		} catch (error) {
 			clear();
-			if (error instanceof users.AccountError) return setError(form, 'current', error.message);
-			throw error;
+			return formFailure(error, form);
 		}
 		clear();
 		return message(form, 'Your new password is set.');

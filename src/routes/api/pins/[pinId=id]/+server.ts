@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { movePinSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
@@ -12,6 +12,6 @@ export const PATCH: RequestHandler = async ({ params, request, locals }) => {
 	try {
 		return json(joints.movePin(Number(params.pinId), body.data, locals.user!.id));
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

@@ -1,6 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import type { z } from 'zod';
 import * as welders from '$lib/server/welders';
+import { formFailure } from '$lib/server/errors';
 import { can } from '$lib/permissions';
 import { qualificationSchema, welderSchema, welderStatusSchema } from '$lib/schemas/outstanding';
 import type { Actions, PageServerLoad } from './$types';
@@ -37,14 +38,7 @@ function parsed<T extends z.ZodType>(schema: T, input: unknown, action: string) 
 }
 
 function refused(action: string, error: unknown) {
-	if (error instanceof welders.WelderError)
-		return fail(error.status, {
-			action,
-			message: error.message,
-			field: error.field,
-			error: true
-		} satisfies Failure);
-	throw error;
+	return formFailure(error, undefined, { action });
 }
 
 export const actions = {
