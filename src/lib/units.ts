@@ -10,7 +10,8 @@ import {
 	type ReadingId
 } from './acceptance/readings';
 
-export type UnitSystem = 'imperial' | 'metric';
+import type { UnitSystem } from './domain';
+export type { UnitSystem };
 export type TypedUnit = 'in' | 'mm' | 'deg';
 
 export const MM_PER_INCH = 25.4;

@@ -4,11 +4,9 @@
  * and the tests. The server judges the readings itself; nothing here carries a verdict.
  */
 import { z } from 'zod';
-import { NDE_METHODS } from '$lib/joint-state';
+import { DECISIONS, INSPECTION_STAGES, NDE_METHODS, REASON_MIN_LENGTH } from '$lib/domain';
 import { readingsSchema } from './acceptance';
-
-export const INSPECTION_STAGES = ['fitup', 'visual', 'nde'] as const;
-export const DECISIONS = ['accept', 'reject'] as const;
+import { jointVersion } from './joint';
 
 const text = (max: number, what: string) =>
 	z
@@ -16,8 +14,7 @@ const text = (max: number, what: string) =>
 		.trim()
 		.max(max, { error: `${what} has at most ${max} characters.` });
 
-/** The joint's version as the client last saw it; optional, and checked when sent. */
-const version = z.number().int().min(1).optional();
+const version = jointVersion;
 
 export const recordInspectionSchema = z
 	.object({
@@ -103,7 +100,7 @@ export const recordWeldSchema = z.object({
 			reason: z
 				.string()
 				.trim()
-				.min(3, { error: 'Say why the qualification check is overridden.' })
+				.min(REASON_MIN_LENGTH, { error: 'Say why the qualification check is overridden.' })
 				.max(500)
 		})
 		.optional(),

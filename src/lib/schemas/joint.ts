@@ -3,11 +3,9 @@
  * the tests. Lengths arrive as typed (`3/8`, `9.5 mm`) and are read by the units module.
  */
 import { z } from 'zod';
+import { JOINT_KINDS, JOINT_LOCATIONS, REASON_MIN_LENGTH } from '$lib/domain';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength, type UnitSystem } from '$lib/units';
-
-export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
-export const JOINT_LOCATIONS = ['shop', 'field'] as const;
 
 const text = (max: number) => z.string().trim().max(max);
 
@@ -19,6 +17,15 @@ export const weldNumber = z
 	.regex(/^[A-Za-z0-9][A-Za-z0-9./-]*$/, {
 		error: 'Use letters, digits, "-", "/" or "." in a weld number.'
 	});
+
+/**
+ * The joint's version as the client last read it. Every write that changes a joint sends it;
+ * a joint changed since answers 409, so nobody overwrites a record they have not seen.
+ */
+export const jointVersion = z
+	.number({ error: 'Send the joint version you last saw.' })
+	.int({ error: 'The joint version is a whole number.' })
+	.min(1, { error: 'The joint version is a whole number from 1.' });
 
 export const jointFields = z.object({
 	kind: z.enum(JOINT_KINDS, { error: 'Choose butt, fillet, socket or branch.' }),
@@ -56,22 +63,21 @@ export const movePinSchema = z.object({
 	x: z.number().finite(),
 	y: z.number().finite(),
 	pageIndex: z.number().int().min(0).optional(),
-	/** The joint's version as the client last saw it. */
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export const updateJointSchema = jointFields.partial().extend({
 	number: weldNumber.optional(),
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export const voidJointSchema = z.object({
 	reason: z
 		.string()
 		.trim()
-		.min(3, { error: 'Say why the joint is voided (at least a few words).' })
+		.min(REASON_MIN_LENGTH, { error: 'Say why the joint is voided (at least a few words).' })
 		.max(300),
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 /** A cut-out: the joint is voided with the reason and a joint with the N-suffixed number replaces it. */
@@ -79,16 +85,16 @@ export const cutOutSchema = z.object({
 	reason: z
 		.string({ error: 'Say why the joint is cut out.' })
 		.trim()
-		.min(3, {
+		.min(REASON_MIN_LENGTH, {
 			error: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").'
 		})
 		.max(300, { error: 'Keep the reason under 300 characters.' }),
-	version: z.number({ error: 'Send the joint version you last saw.' }).int().min(1)
+	version: jointVersion
 });
 export type CutOut = z.infer<typeof cutOutSchema>;
 
 export const reviewPinSchema = z.object({
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export interface LengthColumns {

@@ -3,6 +3,7 @@
  * welding, final visual after). One row per joint, grouped by batch; the project's inspectors
  * get one e-mail per batch. A request closes itself when that inspection is recorded.
  */
+import { STAGE_LABELS } from '$lib/domain';
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
@@ -16,8 +17,6 @@ import type { InspectionRequestInput } from '$lib/schemas/outstanding';
 
 const r = schema.inspectionRequests;
 const j = schema.joints;
-
-const STAGE_WORDS: Record<RequestStage, string> = { fitup: 'fit-up', visual: 'visual' };
 
 function projectInspectors(projectId: number) {
 	return db
@@ -64,7 +63,7 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 		for (const row of rows) {
 			if (!REQUESTABLE_STATES[input.stage].includes(row.state)) {
 				throw new DomainError(
-					`Cannot request a ${STAGE_WORDS[input.stage]} inspection of ${name(row)}: it is ${STATE_LOOKS[row.state].label.toLowerCase()} (next: ${STATE_LOOKS[row.state].next.toLowerCase()}).`,
+					`Cannot request a ${STAGE_LABELS[input.stage].word} inspection of ${name(row)}: it is ${STATE_LOOKS[row.state].label.toLowerCase()} (next: ${STATE_LOOKS[row.state].next.toLowerCase()}).`,
 					409,
 					'jointIds'
 				);
@@ -78,7 +77,7 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 		if (open.length > 0) {
 			const row = rows.find((x) => x.id === open[0].jointId)!;
 			throw new DomainError(
-				`A ${STAGE_WORDS[input.stage]} inspection of ${name(row)} is already requested (since ${new Date(open[0].requestedAt).toISOString().slice(0, 16).replace('T', ' ')} UTC).`,
+				`A ${STAGE_LABELS[input.stage].word} inspection of ${name(row)} is already requested (since ${new Date(open[0].requestedAt).toISOString().slice(0, 16).replace('T', ' ')} UTC).`,
 				409,
 				'jointIds'
 			);
@@ -184,7 +183,7 @@ export async function notify(
 		await mail.send(
 			mailTemplates.inspectionRequest(inspector.email, {
 				project: `${project.code} ${project.name}`,
-				stage: STAGE_WORDS[stage],
+				stage: STAGE_LABELS[stage].word,
 				requestedBy: who?.name ?? who?.email ?? 'The foreman',
 				note: created.requests[0]?.note ?? '',
 				welds,
