@@ -69,12 +69,18 @@ function jointIn(state: 'awaiting_fitup' | 'awaiting_visual') {
 	if (state === 'awaiting_visual') {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp }
@@ -175,7 +181,12 @@ describe('requesting an inspection', () => {
 			.run();
 		const { inspection } = inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'visual', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'visual',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		const closed = db

@@ -55,7 +55,12 @@ function placeJoint() {
 const fitup = (jointId: number, decision: 'accept' | 'reject') =>
 	inspections.record(
 		jointId,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision }),
+		recordInspectionSchema.parse({
+			version: joints.row(jointId)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision
+		}),
 		inspectorId
 	);
 
@@ -107,6 +112,7 @@ describe('per-drawing state counts', () => {
 		welds.record(
 			a.id,
 			recordWeldSchema.parse({
+				version: joints.row(a.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }

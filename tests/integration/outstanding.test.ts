@@ -58,7 +58,12 @@ function placeJoint(accepted: boolean) {
 	if (accepted) {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 	}
@@ -167,6 +172,7 @@ describe('filters', () => {
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }

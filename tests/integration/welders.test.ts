@@ -179,11 +179,23 @@ describe("a welder's record", () => {
 			inspectorId
 		);
 		const inspect = (body: unknown) =>
-			inspections.record(joint.id, recordInspectionSchema.parse(body), inspectorId);
+			inspections.record(
+				joint.id,
+				recordInspectionSchema.parse({
+					version: joints.row(joint.id)!.version,
+					...(body as object)
+				}),
+				inspectorId
+			);
 		const weld = (weldedOn: string) =>
 			welds.record(
 				joint.id,
-				recordWeldSchema.parse({ weldedOn, process: 'GTAW', welders: { root: 'RR1' } }),
+				recordWeldSchema.parse({
+					version: joints.row(joint.id)!.version,
+					weldedOn,
+					process: 'GTAW',
+					welders: { root: 'RR1' }
+				}),
 				{ id: foremanId, isAdmin: false }
 			);
 		inspect({ stage: 'fitup', readings: {}, decision: 'accept' });

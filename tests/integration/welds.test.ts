@@ -61,7 +61,12 @@ function readyJoint(fields: Partial<JointFields> = {}) {
 	);
 	inspections.record(
 		joint.id,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+		recordInspectionSchema.parse({
+			version: joints.row(joint.id)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision: 'accept'
+		}),
 		inspectorId
 	);
 	return joints.row(joint.id)!;
@@ -110,7 +115,11 @@ function lastUsed(welderId: number, process: string) {
 }
 
 const weld = (jointId: number, body: unknown, user = foreman()) =>
-	welds.record(jointId, recordWeldSchema.parse(body), user);
+	welds.record(
+		jointId,
+		recordWeldSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		user
+	);
 
 function expectCacheAgrees(jointId: number) {
 	const cached = joints.row(jointId)!;
@@ -125,7 +134,8 @@ async function post(jointId: number, userId: string, body: unknown) {
 		request: new Request(`http://localhost/api/joints/${jointId}/welds`, {
 			method: 'POST',
 			headers: { 'content-type': 'application/json' },
-			body: JSON.stringify(body)
+			// As the weld form sends it: with the joint's version as last read, unless given.
+			body: JSON.stringify({ version: joints.row(jointId)?.version, ...(body as object) })
 		}),
 		locals: { user: users.principal(userId) }
 	} as never);
@@ -215,6 +225,7 @@ describe('recording a weld', () => {
 		inspections.record(
 			joint.id,
 			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
 				stage: 'visual',
 				// ASME B31.3-2018 Table 341.3.2 criterion H: Tw = 0.216 in → min(1/32, 0.054) = 1/32 in.
 				readings: { undercutDepth: '1/16' },

@@ -13,6 +13,7 @@ import { DomainError } from './errors';
 import { and, asc, eq, like } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
+import * as projects from './projects';
 import {
 	builtInCriteriaSetIds,
 	checkIds,
@@ -227,18 +228,8 @@ export function projectSetJson({ set, baseId, versions }: ProjectSet) {
 
 // Writing -----------------------------------------------------------------------------------
 
-function projectUnits(projectId: number, reader: Reader): UnitSystem {
-	return (
-		reader
-			.select({ units: schema.projects.units })
-			.from(schema.projects)
-			.where(eq(schema.projects.id, projectId))
-			.get()?.units ?? 'imperial'
-	);
-}
-
 function readOrThrow(input: CriteriaSetInput, projectId: number, reader: Reader): Overrides {
-	const read = readOverrides(input.overrides, projectUnits(projectId, reader));
+	const read = readOverrides(input.overrides, projects.unitsOf(projectId, reader));
 	if (!read.ok) throw new DomainError(read.message, 400, read.field);
 	return read.overrides;
 }

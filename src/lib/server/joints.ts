@@ -7,6 +7,7 @@ import { DomainError } from './errors';
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
+import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import {
@@ -139,16 +140,6 @@ export function pinsOf(revisionId: number) {
 
 export function row(jointId: number, tx: Reader = db) {
 	return tx.select().from(j).where(eq(j.id, jointId)).get();
-}
-
-function projectUnits(projectId: number, tx: Reader = db): UnitSystem {
-	return (
-		tx
-			.select({ units: schema.projects.units })
-			.from(schema.projects)
-			.where(eq(schema.projects.id, projectId))
-			.get()?.units ?? 'imperial'
-	);
 }
 
 /** The joint with its state, next step, pins on every revision, and its whole history. */
@@ -351,7 +342,7 @@ export function place(input: PlacePin, userId: string) {
 	if (input.joint.criteriaSetId !== undefined) {
 		checkCriteriaSet(revision.projectId, input.joint.criteriaSetId, 'joint.criteriaSetId', db);
 	}
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const used = numbersOf(revision.drawingId, tx);
 		const line = input.joint.line ?? revision.line;
 		// Numbers run per drawing, or on along the whole line across its drawings.
@@ -441,7 +432,7 @@ export function place(input: PlacePin, userId: string) {
 			},
 			tx
 		);
-		events.publish(revision.projectId, {
+		tell(revision.projectId, {
 			type: 'pin',
 			action: 'created',
 			revisionId: revision.id,
@@ -453,16 +444,19 @@ export function place(input: PlacePin, userId: string) {
 	});
 }
 
-function lockedJoint(tx: Tx, jointId: number, version: number) {
+/** What every joint write answers when the joint changed after the caller read it. */
+export const STALE_JOINT = (number: string) =>
+	`Someone else changed joint ${number} since you opened it. Reload it and check before you save again.`;
+
+/**
+ * The joint, read inside the write's transaction, refused unless it is still at the version
+ * the caller read: every write that changes a joint goes through here, so two people never
+ * overwrite each other unseen.
+ */
+export function lockedJoint(tx: Tx, jointId: number, version: number) {
 	const joint = row(jointId, tx);
 	if (!joint) throw new DomainError('There is no such joint.', 404);
-	if (joint.version !== version) {
-		throw new DomainError(
-			`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${version}). It has been reloaded; check it and try again.`,
-			409,
-			'version'
-		);
-	}
+	if (joint.version !== version) throw new DomainError(STALE_JOINT(joint.number), 409, 'version');
 	return joint;
 }
 
@@ -472,14 +466,14 @@ export function update(
 	changes: Partial<JointFields> & { number?: string; version: number },
 	userId: string
 ) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, changes.version);
 		if (joint.voidedAt)
 			throw new DomainError(`Joint ${joint.number} is void and can no longer change.`, 409);
 		const { version: _version, size, thickness, requiredSize, number, ...plain } = changes;
 		const lengths = lengthsOrThrow(
 			{ size, thickness, requiredSize },
-			projectUnits(joint.projectId, tx)
+			projects.unitsOf(joint.projectId, tx)
 		);
 		if (plain.criteriaSetId !== undefined && plain.criteriaSetId !== joint.criteriaSetId) {
 			checkCriteriaSet(joint.projectId, plain.criteriaSetId, 'criteriaSetId', tx);
@@ -520,7 +514,7 @@ export function update(
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'updated',
 			jointId,
@@ -555,7 +549,7 @@ function markVoid(
 
 /** Void a joint: it stays in the log, greyed, and its number is never used again. */
 export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, version);
 		if (joint.voidedAt) throw new DomainError(`Joint ${joint.number} is already void.`, 409);
 		const now = Date.now();
@@ -572,7 +566,7 @@ export function voidJoint(jointId: number, reason: string, version: number, user
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'voided',
 			jointId,
@@ -595,7 +589,7 @@ export function movePin(
 	to: { x: number; y: number; pageIndex?: number; version: number },
 	userId: string
 ) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const pin = pinWithJoint(tx, pinId);
 		const joint = lockedJoint(tx, pin.jointId, to.version);
 		const revision = tx
@@ -638,7 +632,7 @@ export function movePin(
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'pin',
 			action: 'moved',
 			revisionId: pin.revisionId,
@@ -652,7 +646,7 @@ export function movePin(
 
 /** Confirm a pin carried to a new revision: the joint is where it was. */
 export function confirmPin(pinId: number, version: number, userId: string) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const pin = pinWithJoint(tx, pinId);
 		const joint = lockedJoint(tx, pin.jointId, version);
 		const now = Date.now();
@@ -674,7 +668,7 @@ export function confirmPin(pinId: number, version: number, userId: string) {
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'pin',
 			action: 'reviewed',
 			revisionId: pin.revisionId,
@@ -711,7 +705,7 @@ const CARRIED = [
  * requirement. One transaction, audited on both joints; the new one starts awaiting fit-up.
  */
 export function cutOut(jointId: number, reason: string, version: number, userId: string) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, version);
 		const label = displayWeldNumber(joint.number, joint.repairCycle);
 		const replaced = tx
@@ -823,14 +817,14 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'voided',
 			jointId,
 			drawingId: joint.drawingId,
 			by: userId
 		});
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'pin',
 			action: 'created',
 			revisionId: newPin.revisionId,

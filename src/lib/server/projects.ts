@@ -1,9 +1,10 @@
 /** Projects and the counts their overview shows. */
 import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
-import { db, schema } from './db';
+import { db, schema, type Db } from './db';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import * as audit from './audit';
 import type { z } from 'zod';
+import type { UnitSystem } from '$lib/domain';
 import type { projectSettingsSchema } from '$lib/schemas/project';
 
 export function list(projectIds?: readonly number[]) {
@@ -128,4 +129,15 @@ export function updateSettings(
 		);
 		return updated;
 	});
+}
+
+/** The project's unit system: what a bare number typed on its forms means. */
+export function unitsOf(projectId: number, reader: Pick<Db, 'select'> = db): UnitSystem {
+	return (
+		reader
+			.select({ units: schema.projects.units })
+			.from(schema.projects)
+			.where(eq(schema.projects.id, projectId))
+			.get()?.units ?? 'imperial'
+	);
 }

@@ -6,6 +6,7 @@ import { DomainError } from './errors';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
+import { standingSql } from './inspections';
 import { addDays, checkQualification, continuityValidThrough } from './welds';
 import type { QualificationInput, WelderInput } from '$lib/schemas/outstanding';
 
@@ -45,7 +46,7 @@ function records(projectId: number) {
 		join ${schema.welds} w on w.id = ww.weld_id
 		left join ${schema.inspections} i on i.joint_id = w.joint_id and i.stage = 'nde'
 			and i.repair_cycle = w.repair_cycle
-			and i.id not in (select supersedes_id from ${schema.inspections} where supersedes_id is not null)
+			and ${standingSql(sql`i.id`)}
 		where wr.project_id = ${projectId}
 		group by ww.welder_id`);
 }

@@ -13,7 +13,7 @@ import { db, schema } from './db';
 import * as audit from './audit';
 import * as events from './events';
 import { DomainError } from './errors';
-import { refreshState, row, stateInput } from './joints';
+import { lockedJoint, refreshState, row, stateInput } from './joints';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
 import type { RecordWeld } from '$lib/schemas/inspection';
@@ -350,16 +350,8 @@ export function record(
 	user: { id: string; isAdmin: boolean },
 	options: { today?: string } = {}
 ) {
-	return db.transaction((tx) => {
-		const joint = row(jointId, tx);
-		if (!joint) throw new DomainError('There is no such joint.', 404);
-		if (input.version !== undefined && input.version !== joint.version) {
-			throw new DomainError(
-				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
-				409,
-				'version'
-			);
-		}
+	return events.afterCommit((tx, tell) => {
+		const joint = lockedJoint(tx, jointId, input.version);
 		if (joint.voidedAt) {
 			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
@@ -533,7 +525,7 @@ export function record(
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'recorded',
 			jointId,

@@ -7,7 +7,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as weldLog from '../weld-log';
 import { weldLogFilter } from '$lib/schemas/weld-log';
-import { displayWeldNumber } from '$lib/joint-state';
+import { correctionsOf, displayWeldNumber } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
 import { withEntryDates } from './zip-dates';
@@ -81,7 +81,8 @@ const HEADERS = [
 	'Technician',
 	'Criteria set',
 	'Record id',
-	'Corrects record'
+	'Corrects record',
+	'Stands'
 ];
 
 /** RFC 4180 quoting, and a leading quote on text a spreadsheet would run as a formula. */
@@ -154,7 +155,10 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 				a.inspectedAt - b.inspectedAt ||
 				a.id - b.id
 		);
+		// A drawing's joints sit in one chunk, so every correction is beside the row it names.
+		const correctedBy = correctionsOf(rows);
 		for (const row of rows) {
+			const correction = correctedBy.get(row.id);
 			lines.push(
 				[
 					numberOf.get(row.drawingId) ?? '',
@@ -179,7 +183,8 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						? `${row.criteriaSetId}${row.criteriaSetVersion != null ? ` v${row.criteriaSetVersion}` : ''}`
 						: '',
 					row.id,
-					row.supersedesId ?? ''
+					row.supersedesId ?? '',
+					correction ? `no: corrected by ${correction.id}` : 'yes'
 				]
 					.map(field)
 					.join(',')

@@ -1,0 +1,199 @@
+/**
+ * One true record: the joint's state, the weld log, its CSV and the turnover records say the
+ * same of which inspection stands after any correction; every write that changes a joint
+ * takes its version; the news of a change goes out after it is committed.
+ */
+import { PassThrough } from 'node:stream';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { db } from '$lib/server/db';
+import { seedIfEmpty } from '$lib/server/demo/seed';
+import * as joints from '$lib/server/joints';
+import * as inspections from '$lib/server/inspections';
+import * as events from '$lib/server/events';
+import * as users from '$lib/server/users';
+import * as weldLog from '$lib/server/weld-log';
+import { inspectionsCsv } from '$lib/server/export/records';
+import type { ScopeDrawing } from '$lib/server/export/scope';
+import { filled, weldLogQuery } from '$lib/schemas/weld-log';
+import { exportRequestSchema } from '$lib/schemas/export';
+import { recordInspectionSchema } from '$lib/schemas/inspection';
+import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
+import { demoDrawing, demoUserId } from '../fixtures/demo';
+
+type Handler = (event: never) => Response | Promise<Response>;
+
+let inspectorId: string;
+let projectId: number;
+let drawingId: number;
+let revisionId: number;
+
+beforeAll(async () => {
+	await seedIfEmpty();
+	inspectorId = demoUserId('inspector@tacksheet.test');
+	({ projectId, drawingId, revisionId } = demoDrawing('LBM-20-ISO-1105'));
+}, 120_000);
+
+let placed = 0;
+function newJoint(number: string) {
+	placed++;
+	return joints.place(
+		{
+			revisionId,
+			pageIndex: 0,
+			x: 60 + placed * 4,
+			y: 420,
+			number,
+			joint: { kind: 'butt', size: '6', thickness: '0.280 in', criteriaSetId: 'asme-b31.3-normal' }
+		},
+		inspectorId
+	).joint;
+}
+
+function fitup(jointId: number, decision: 'accept' | 'reject', more: object = {}) {
+	return inspections.record(
+		jointId,
+		recordInspectionSchema.parse({
+			stage: 'fitup',
+			decision,
+			version: joints.row(jointId)!.version,
+			...more
+		}),
+		inspectorId
+	);
+}
+
+/** A small RFC 4180 reader: quoted fields, doubled quotes, CRLF records. */
+function readCsv(text: string): string[][] {
+	const records: string[][] = [];
+	let record: string[] = [];
+	let field = '';
+	let quoted = false;
+	for (let n = 0; n < text.length; n++) {
+		const c = text[n];
+		if (quoted) {
+			if (c === '"' && text[n + 1] === '"') ((field += '"'), n++);
+			else if (c === '"') quoted = false;
+			else field += c;
+		} else if (c === '"') quoted = true;
+		else if (c === ',') (record.push(field), (field = ''));
+		else if (c === '\r' && text[n + 1] === '\n') {
+			record.push(field);
+			records.push(record);
+			((record = []), (field = ''), n++);
+		} else field += c;
+	}
+	if (field || record.length) records.push([...record, field]);
+	return records;
+}
+
+describe('which inspection stands, everywhere', () => {
+	// Common practice: a correction replaces the record it names and nothing else; a later
+	// re-fit that was accepted stays the fit-up the joint is welded on.
+	it('fit-up rejected, re-fit accepted, the first corrected (still rejected): ready to weld, fit-up accept', async () => {
+		const joint = newJoint('STD1');
+		const first = fitup(joint.id, 'reject');
+		fitup(joint.id, 'accept');
+		const correction = fitup(joint.id, 'reject', {
+			supersedes: first.inspection.id,
+			reason: 'Re-gauged: root opening was misread, still too wide'
+		});
+
+		expect(joints.row(joint.id)!.state).toBe('ready_to_weld');
+
+		const page = weldLog.list(
+			projectId,
+			weldLogQuery.parse(filled({ drawing: String(drawingId) }))
+		);
+		const row = page.items.find((r) => r.id === joint.id)!;
+		expect(row.state).toBe('ready_to_weld');
+		expect(row.fitupResult).toBe('accept');
+
+		const sink = new PassThrough();
+		const chunks: Buffer[] = [];
+		sink.on('data', (chunk: Buffer) => chunks.push(chunk));
+		await weldLog.writeCsv(
+			weldLog.iterate(projectId, weldLogQuery.parse(filled({ drawing: String(drawingId) }))),
+			sink
+		);
+		const log = readCsv(
+			Buffer.concat(chunks)
+				.toString('utf8')
+				.replace(/^\uFEFF/, '')
+		);
+		const header = log[0];
+		const line = log.find((r) => r[header.indexOf('Weld no.')] === 'STD1')!;
+		expect(line[header.indexOf('Fit-up')]).toMatch(/^accept/i);
+		expect(line[header.indexOf('State')]).toMatch(/ready to weld/i);
+
+		const scope = [{ id: drawingId, number: 'LBM-20-ISO-1105' }] as ScopeDrawing[];
+		const records = readCsv(
+			inspectionsCsv(exportRequestSchema.parse({ scope: { drawings: [drawingId] } }), scope)
+				.toString('utf8')
+				.replace(/^\uFEFF/, '')
+		);
+		const columns = records[0];
+		const mine = records.filter((r) => r[columns.indexOf('Weld no.')] === 'STD1');
+		const stands = (id: number) =>
+			mine.find((r) => r[columns.indexOf('Record id')] === String(id))![columns.indexOf('Stands')];
+		expect(stands(first.inspection.id)).toBe(`no: corrected by ${correction.inspection.id}`);
+		expect(stands(correction.inspection.id)).toBe('yes');
+		expect(mine).toHaveLength(3);
+	});
+});
+
+describe('every write that changes a joint takes its version', () => {
+	async function post(jointId: number, body: unknown) {
+		const response = await (postInspection as unknown as Handler)({
+			params: { jointId: String(jointId) },
+			request: new Request(`http://localhost/api/joints/${jointId}/inspections`, {
+				method: 'POST',
+				headers: { 'content-type': 'application/json' },
+				body: JSON.stringify(body)
+			}),
+			locals: { user: users.principal(inspectorId) }
+		} as never);
+		return { status: response.status, body: await response.json() };
+	}
+
+	it('ten identical fit-up accepts sent together: one lands, nine answer 409', async () => {
+		const joint = newJoint('STD2');
+		const body = { stage: 'fitup', decision: 'accept', version: joint.version };
+		const answers = await Promise.all(Array.from({ length: 10 }, () => post(joint.id, body)));
+		expect(answers.filter((a) => a.status === 201)).toHaveLength(1);
+		const stale = answers.filter((a) => a.status === 409);
+		expect(stale).toHaveLength(9);
+		for (const answer of stale) {
+			expect(answer.body.field).toBe('version');
+			expect(answer.body.error).toMatch(/changed joint STD2 since you opened it/);
+			expect(answer.body.error).not.toMatch(/\d+, yours/);
+		}
+		expect(inspections.list(joint.id)).toHaveLength(1);
+	});
+
+	it('refuses a write without the version with 400 naming it, storing nothing', async () => {
+		const joint = newJoint('STD3');
+		const answer = await post(joint.id, { stage: 'fitup', decision: 'accept' });
+		expect(answer.status).toBe(400);
+		expect(answer.body.field).toBe('version');
+		expect(inspections.list(joint.id)).toHaveLength(0);
+	});
+});
+
+describe('news of a change', () => {
+	it('goes out once the write is committed, never from inside its transaction', () => {
+		const joint = newJoint('STD4');
+		const seen: boolean[] = [];
+		const stop = events.subscribe(projectId, () => seen.push(db.$client.inTransaction));
+		try {
+			fitup(joint.id, 'accept');
+			joints.update(
+				joint.id,
+				{ spool: 'SP-9', version: joints.row(joint.id)!.version },
+				inspectorId
+			);
+		} finally {
+			stop();
+		}
+		expect(seen).toEqual([false, false]);
+	});
+});
