@@ -85,7 +85,7 @@ function jointIn(state: 'awaiting_fitup' | 'awaiting_visual') {
 				process: 'GTAW',
 				welders: { root: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 	}
 	return joints.row(joint.id)!;
@@ -99,7 +99,7 @@ async function post(body: unknown) {
 			body: JSON.stringify(body)
 		}),
 		url: new URL(`http://localhost/api/projects/${projectId}/inspection-requests`),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }

@@ -8,6 +8,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
+import * as users from '$lib/server/users';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
 import * as weldLog from '$lib/server/weld-log';
@@ -117,7 +118,7 @@ describe('per-drawing state counts', () => {
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		expect(joints.row(a.id)!.state).toBe('awaiting_visual');
 		expect(countsTable()).toEqual(directCounts());

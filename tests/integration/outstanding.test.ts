@@ -177,7 +177,7 @@ describe('filters', () => {
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		const board = outstanding.board(projectId, query({ welder: welder.id }));
 		const rows = [...board.owed.foreman, ...board.owed.inspector].flatMap((g) => g.items);
@@ -191,7 +191,7 @@ describe('GET /api/projects/{id}/outstanding', () => {
 	const get = async (search: string) => {
 		const response = await (GET as unknown as Handler)({
 			url: new URL(`http://localhost/api/projects/${projectId}/outstanding${search}`),
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		return { status: response.status, body: await response.json() };
 	};

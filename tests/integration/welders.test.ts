@@ -38,7 +38,7 @@ async function post(body: unknown) {
 			headers: { 'content-type': 'application/json' },
 			body: JSON.stringify(body)
 		}),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }
@@ -71,7 +71,7 @@ describe('adding a welder', () => {
 
 	it('keeps the GET shape { items } and adds the lapsing list', async () => {
 		const response = await (GET as unknown as Handler)({
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		const body = await response.json();
 		expect(Array.isArray(body.items)).toBe(true);
@@ -196,7 +196,7 @@ describe("a welder's record", () => {
 					process: 'GTAW',
 					welders: { root: 'RR1' }
 				}),
-				{ id: foremanId, isAdmin: false }
+				users.principal(foremanId)!
 			);
 		inspect({ stage: 'fitup', readings: {}, decision: 'accept' });
 		weld('2025-06-10');

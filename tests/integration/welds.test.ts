@@ -25,8 +25,8 @@ let foremanId: string;
 let adminId: string;
 let projectId: number;
 let revisionId: number;
-const foreman = () => ({ id: foremanId, isAdmin: false });
-const admin = () => ({ id: adminId, isAdmin: true });
+const foreman = () => users.principal(foremanId)!;
+const admin = () => users.principal(adminId)!;
 
 beforeAll(async () => {
 	await seedIfEmpty();

@@ -5,6 +5,7 @@ import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import * as audit from './audit';
 import type { z } from 'zod';
 import type { UnitSystem } from '$lib/domain';
+import { visibleProjectIds, type Principal } from '$lib/permissions';
 import type { projectSettingsSchema } from '$lib/schemas/project';
 
 export function list(projectIds?: readonly number[]) {
@@ -140,4 +141,9 @@ export function unitsOf(projectId: number, reader: Pick<Db, 'select'> = db): Uni
 			.where(eq(schema.projects.id, projectId))
 			.get()?.units ?? 'imperial'
 	);
+}
+
+/** The projects the caller may see, as the project switcher and the API list them. */
+export function visibleTo(principal: Principal) {
+	return list(visibleProjectIds(principal));
 }

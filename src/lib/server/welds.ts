@@ -16,6 +16,7 @@ import { DomainError } from './errors';
 import { lockedJoint, refreshState, row, stateInput } from './joints';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
+import { can, type Principal } from '$lib/permissions';
 import type { RecordWeld } from '$lib/schemas/inspection';
 import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
 
@@ -347,7 +348,7 @@ function qualificationsOf(tx: Tx, welderIds: number[]) {
 export function record(
 	jointId: number,
 	input: RecordWeld,
-	user: { id: string; isAdmin: boolean },
+	user: Principal & { id: string },
 	options: { today?: string } = {}
 ) {
 	return events.afterCommit((tx, tell) => {
@@ -434,16 +435,17 @@ export function record(
 		const problems = uses.filter((u) => !u.check.ok);
 		const hard = problems.find((p) => !p.check.ok && !p.check.overridable);
 		if (hard) throw new DomainError(problemText(hard), 409, `welders.${hard.pass}`);
+		const mayOverride = can(user, 'weld.override', joint.projectId);
 		if (problems.length > 0) {
 			const told = problems.map(problemText).join(' ');
 			if (!input.override) {
 				throw new DomainError(
-					`${told} Renew the qualification, or ${user.isAdmin ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
+					`${told} Renew the qualification, or ${mayOverride ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
 					409,
 					`welders.${problems[0].pass}`
 				);
 			}
-			if (!user.isAdmin) {
+			if (!mayOverride) {
 				throw new DomainError(
 					`Only an administrator may override a welder qualification check. ${told}`,
 					403,

@@ -4,7 +4,7 @@ import type { LayoutServerLoad } from './$types';
 export const load = (async ({ locals }) => {
 	// The hooks have already sent anyone signed out to the sign-in page.
 	const user = locals.user!;
-	const visible = projects.list(user.isAdmin ? undefined : Object.keys(user.roles).map(Number));
+	const visible = projects.visibleTo(user);
 	return {
 		user: {
 			id: user.id,

@@ -16,10 +16,7 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 	if ('response' in body) return body.response;
 	const user = locals.user!;
 	try {
-		const recorded = welds.record(Number(params.jointId), body.data, {
-			id: user.id,
-			isAdmin: user.isAdmin
-		});
+		const recorded = welds.record(Number(params.jointId), body.data, user);
 		return json(recorded, { status: 201 });
 	} catch (error) {
 		return apiFailure(error);

@@ -4,7 +4,7 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import * as users from '$lib/server/users';
 import * as projects from '$lib/server/projects';
 import { membershipSchema } from '$lib/schemas/account';
-import { PROJECT_ROLES, type ProjectRole } from '$lib/permissions';
+import { PROJECT_ROLES, ROLE_LABELS, type ProjectRole } from '$lib/permissions';
 import type { Actions, PageServerLoad } from './$types';
 
 function projectOrThrow(id: string) {
@@ -39,7 +39,7 @@ export const actions = {
 		users.setRole(project.id, user.id, form.data.role, locals.user!.id);
 		return message(
 			form,
-			`${user.email} is now ${form.data.role.replace('_', ' ')} on ${project.code}.`
+			`${user.email} is now ${ROLE_LABELS[form.data.role].toLowerCase()} on ${project.code}.`
 		);
 	},
 	role: async ({ request, params, locals }) => {
