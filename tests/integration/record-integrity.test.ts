@@ -16,7 +16,11 @@ import { inspectionsCsv } from '$lib/server/export/records';
 import type { ScopeDrawing } from '$lib/server/export/scope';
 import { filled, weldLogQuery } from '$lib/schemas/weld-log';
 import { exportRequestSchema } from '$lib/schemas/export';
-import { recordInspectionSchema } from '$lib/schemas/inspection';
+import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
+import { voidJointSchema } from '$lib/schemas/joint';
+import { newDrawingSchema } from '$lib/schemas/drawing';
+import { qualificationSchema, welderSchema } from '$lib/schemas/outstanding';
+import * as pins from '$lib/server/pins';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
 
@@ -195,5 +199,44 @@ describe('news of a change', () => {
 			stop();
 		}
 		expect(seen).toEqual([false, false]);
+	});
+});
+
+describe('input the record can hold', () => {
+	it('refuses a pin off the sheet with 400 naming the axis, storing nothing', () => {
+		const before = pins.ofRevision(revisionId).length;
+		expect(() =>
+			joints.place({ revisionId, pageIndex: 0, x: -1e308, y: 100, joint: {} }, inspectorId)
+		).toThrow(expect.objectContaining({ status: 400, field: 'x' }));
+		expect(() =>
+			joints.place({ revisionId, pageIndex: 0, x: 100, y: 1e308, joint: {} }, inspectorId)
+		).toThrow(expect.objectContaining({ status: 400, field: 'y' }));
+		expect(pins.ofRevision(revisionId)).toHaveLength(before);
+	});
+
+	it('refuses a date that is not on the calendar, naming the field', () => {
+		const parsed = qualificationSchema.safeParse({ process: 'GTAW', qualifiedOn: '2026-13-45' });
+		expect(parsed.success).toBe(false);
+		expect(parsed.error!.issues[0].path).toEqual(['qualifiedOn']);
+		expect(
+			recordWeldSchema.safeParse({ weldedOn: '2026-02-30', welders: { root: 'B1' }, version: 1 })
+				.success
+		).toBe(false);
+	});
+
+	it('refuses control characters, lone surrogates and line breaks in one-line fields', () => {
+		const reason = 'Re-gauged\tby the second inspector\nroot opening misread';
+		expect(voidJointSchema.safeParse({ reason, version: 1 }).success).toBe(true);
+		expect(voidJointSchema.safeParse({ reason: 'bad\u0000reason', version: 1 }).success).toBe(
+			false
+		);
+		expect(voidJointSchema.safeParse({ reason: 'broken \uD800 text', version: 1 }).success).toBe(
+			false
+		);
+		const drawing = { number: 'LBM-20\r\nISO-9', kind: 'isometric' };
+		const refused = newDrawingSchema.safeParse(drawing);
+		expect(refused.success).toBe(false);
+		expect(refused.error!.issues[0].path).toEqual(['number']);
+		expect(welderSchema.safeParse({ stamp: 'B\n1', name: 'Dana Kovač' }).success).toBe(false);
 	});
 });

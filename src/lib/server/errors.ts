@@ -9,6 +9,7 @@
  */
 import { fail, json, type ActionFailure } from '@sveltejs/kit';
 import { message, setError, type SuperValidated } from 'sveltekit-superforms';
+import type { Refusal } from '$lib/domain';
 
 export type DomainStatus = 400 | 403 | 404 | 409 | 410 | 413 | 415 | 422;
 
@@ -31,6 +32,11 @@ export class DomainError extends Error {
 		this.name = 'DomainError';
 		this.exportId = extra.exportId;
 	}
+}
+
+/** A pure rule's refusal (src/lib/domain.ts) thrown as the domain error the routes answer. */
+export function refuse(refusal: Refusal | null): void {
+	if (refusal) throw new DomainError(refusal.message, refusal.status, refusal.field);
 }
 
 /** A DomainError as a JSON answer `{ error, field?, id? }`; anything else is thrown on. */

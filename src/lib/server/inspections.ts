@@ -12,7 +12,7 @@ import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
-import { DomainError } from './errors';
+import { DomainError, refuse } from './errors';
 import { lockedJoint, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
@@ -23,7 +23,7 @@ import {
 	type Stage
 } from '$lib/acceptance';
 import { correctionRequestRefusal } from '$lib/corrections';
-import { isAgainstVerdict, isReasonGiven, type Refusal } from '$lib/domain';
+import { isAgainstVerdict, isReasonGiven } from '$lib/domain';
 import { correctionsOf, deriveJointState, displayWeldNumber, STATE_LOOKS } from '$lib/joint-state';
 import { stageOrderRefusal } from '$lib/stage-order';
 import type { UnitSystem } from '$lib/units';
@@ -132,10 +132,6 @@ function recordsOf(tx: Tx, jointId: number) {
 		.where(eq(i.jointId, jointId))
 		.orderBy(asc(i.inspectedAt), asc(i.id))
 		.all();
-}
-
-function refuse(refusal: Refusal | null): void {
-	if (refusal) throw new DomainError(refusal.message, refusal.status, refusal.field);
 }
 
 function jointInput(joint: Joint): JointInput {

@@ -3,7 +3,7 @@
  * derived from the records and cached in the same transaction as every change. Every write
  * names the version it was based on; a stale one is refused with 409.
  */
-import { DomainError } from './errors';
+import { DomainError, refuse } from './errors';
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
@@ -25,6 +25,7 @@ import {
 	weldNumberSortKey
 } from '$lib/weld-numbers';
 import { jointLengths, type JointFields } from '$lib/schemas/joint';
+import { pinPointRefusal, type PageBox } from '$lib/pin-bounds';
 import type { UnitSystem } from './db/schema';
 
 type Reader = Pick<Db, 'select'>;
@@ -104,39 +105,6 @@ export function refreshState(
 }
 
 // Reading -------------------------------------------------------------------------------
-
-/** The pins of one revision with their joints' states, as the overlay draws them. */
-/** Prepared once: the overlay asks for its pins on every change anyone makes. */
-function pinsQuery() {
-	return db
-		.select({
-			pinId: p.id,
-			jointId: j.id,
-			number: j.number,
-			repairCycle: j.repairCycle,
-			kind: j.kind,
-			location: j.location,
-			pageIndex: p.pageIndex,
-			x: p.x,
-			y: p.y,
-			state: j.state,
-			needsReview: p.needsReview,
-			version: j.version
-		})
-		.from(p)
-		.innerJoin(j, eq(j.id, p.jointId))
-		.where(eq(p.revisionId, sql.placeholder('revisionId')))
-		.orderBy(asc(j.sortKey))
-		.prepare();
-}
-let preparedPins: ReturnType<typeof pinsQuery> | undefined;
-
-export function pinsOf(revisionId: number) {
-	preparedPins ??= pinsQuery();
-	return preparedPins
-		.all({ revisionId })
-		.map((row) => ({ ...row, label: displayWeldNumber(row.number, row.repairCycle) }));
-}
 
 export function row(jointId: number, tx: Reader = db) {
 	return tx.select().from(j).where(eq(j.id, jointId)).get();
@@ -294,6 +262,17 @@ function checkCriteriaSet(projectId: number, id: string, field: string, tx: Read
 	throw new DomainError(problem.message, 400, field);
 }
 
+/** The view box of one sheet, in PDF points. */
+export function pageBox(revisionId: number, pageIndex: number, tx: Reader = db): PageBox {
+	const page = tx
+		.select({ x0: schema.pages.x0, y0: schema.pages.y0, x1: schema.pages.x1, y1: schema.pages.y1 })
+		.from(schema.pages)
+		.where(and(eq(schema.pages.revisionId, revisionId), eq(schema.pages.pageIndex, pageIndex)))
+		.get();
+	if (!page) throw new DomainError(`The revision has no sheet ${pageIndex + 1}.`, 400, 'pageIndex');
+	return page;
+}
+
 function numbersOf(drawingId: number, tx: Reader): string[] {
 	return tx
 		.select({ number: j.number })
@@ -337,6 +316,7 @@ export function place(input: PlacePin, userId: string) {
 		throw new DomainError('Joints are placed on the current revision only.', 409);
 	if (input.pageIndex >= revision.pageCount)
 		throw new DomainError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
+	refuse(pinPointRefusal(pageBox(revision.id, input.pageIndex), input));
 	const location = input.joint.location ?? 'shop';
 	const lengths = lengthsOrThrow(input.joint, revision.units);
 	if (input.joint.criteriaSetId !== undefined) {
@@ -574,109 +554,6 @@ export function voidJoint(jointId: number, reason: string, version: number, user
 			by: userId
 		});
 		return row(jointId, tx)!;
-	});
-}
-
-function pinWithJoint(tx: Tx, pinId: number) {
-	const pin = tx.select().from(p).where(eq(p.id, pinId)).get();
-	if (!pin) throw new DomainError('There is no such pin.', 404);
-	return pin;
-}
-
-/** Move a pin (drag on the sheet); confirms it when it was waiting for review. */
-export function movePin(
-	pinId: number,
-	to: { x: number; y: number; pageIndex?: number; version: number },
-	userId: string
-) {
-	return events.afterCommit((tx, tell) => {
-		const pin = pinWithJoint(tx, pinId);
-		const joint = lockedJoint(tx, pin.jointId, to.version);
-		const revision = tx
-			.select({ status: schema.revisions.status })
-			.from(schema.revisions)
-			.where(eq(schema.revisions.id, pin.revisionId))
-			.get();
-		if (revision?.status !== 'current')
-			throw new DomainError('Pins on a superseded revision stay where they were recorded.', 409);
-		if (joint.voidedAt)
-			throw new DomainError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
-		const now = Date.now();
-		const moved = tx
-			.update(p)
-			.set({
-				x: to.x,
-				y: to.y,
-				pageIndex: to.pageIndex ?? pin.pageIndex,
-				needsReview: false,
-				updatedAt: now
-			})
-			.where(eq(p.id, pinId))
-			.returning()
-			.get();
-		const updated = tx
-			.update(j)
-			.set({ version: joint.version + 1, updatedAt: now })
-			.where(eq(j.id, joint.id))
-			.returning()
-			.get();
-		audit.record(
-			{
-				action: 'pin_move',
-				entity: 'pin',
-				entityId: pinId,
-				projectId: joint.projectId,
-				userId,
-				before: { pageIndex: pin.pageIndex, x: pin.x, y: pin.y },
-				after: { pageIndex: moved.pageIndex, x: moved.x, y: moved.y }
-			},
-			tx
-		);
-		tell(joint.projectId, {
-			type: 'pin',
-			action: 'moved',
-			revisionId: pin.revisionId,
-			jointId: joint.id,
-			pinId,
-			by: userId
-		});
-		return { pin: moved, version: updated.version };
-	});
-}
-
-/** Confirm a pin carried to a new revision: the joint is where it was. */
-export function confirmPin(pinId: number, version: number, userId: string) {
-	return events.afterCommit((tx, tell) => {
-		const pin = pinWithJoint(tx, pinId);
-		const joint = lockedJoint(tx, pin.jointId, version);
-		const now = Date.now();
-		tx.update(p).set({ needsReview: false, updatedAt: now }).where(eq(p.id, pinId)).run();
-		const updated = tx
-			.update(j)
-			.set({ version: joint.version + 1, updatedAt: now })
-			.where(eq(j.id, joint.id))
-			.returning()
-			.get();
-		audit.record(
-			{
-				action: 'pin_confirm',
-				entity: 'pin',
-				entityId: pinId,
-				projectId: joint.projectId,
-				userId,
-				after: { revisionId: pin.revisionId }
-			},
-			tx
-		);
-		tell(joint.projectId, {
-			type: 'pin',
-			action: 'reviewed',
-			revisionId: pin.revisionId,
-			jointId: joint.id,
-			pinId,
-			by: userId
-		});
-		return { version: updated.version };
 	});
 }
 

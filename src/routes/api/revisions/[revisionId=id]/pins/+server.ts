@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
+import * as pins from '$lib/server/pins';
 import { parseBody } from '$lib/server/api-body';
 import { apiFailure } from '$lib/server/errors';
 import { createPinSchema } from '$lib/schemas/joint';
@@ -8,7 +9,7 @@ import type { RequestHandler } from './$types';
 /** Every pin on the revision, at its PDF user-space point, with its joint's state. */
 export const GET: RequestHandler = ({ params }) =>
 	json(
-		{ items: joints.pinsOf(Number(params.revisionId)) },
+		{ items: pins.ofRevision(Number(params.revisionId)) },
 		{ headers: { 'cache-control': 'no-store' } }
 	);
 
