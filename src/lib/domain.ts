@@ -37,6 +37,15 @@ export type Decision = (typeof DECISIONS)[number];
 export const WELD_PASSES = ['root', 'fill', 'cap'] as const;
 export type WeldPass = (typeof WELD_PASSES)[number];
 
+/**
+ * A welder stamp as it is compared: Unicode-normalised (NFKC, so a full-width `Ｂ１` is `B1`)
+ * and upper-cased in every script (`é1` and `É1` are one stamp). The database keeps this key
+ * beside the stamp as typed, under a unique index, so JS and SQL compare stamps one way.
+ */
+export function stampKey(stamp: string): string {
+	return stamp.trim().normalize('NFKC').toLocaleUpperCase('und');
+}
+
 /** A stage as a sentence names it ("the fit-up result"), and as a heading or list shows it. */
 export const STAGE_LABELS: Record<
 	InspectionStage,

@@ -21,6 +21,7 @@ import { voidJointSchema } from '$lib/schemas/joint';
 import { newDrawingSchema } from '$lib/schemas/drawing';
 import { qualificationSchema, welderSchema } from '$lib/schemas/outstanding';
 import * as pins from '$lib/server/pins';
+import * as welders from '$lib/server/welders';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
 
@@ -238,5 +239,23 @@ describe('input the record can hold', () => {
 		expect(refused.success).toBe(false);
 		expect(refused.error!.issues[0].path).toEqual(['number']);
 		expect(welderSchema.safeParse({ stamp: 'B\n1', name: 'Dana Kovač' }).success).toBe(false);
+	});
+});
+
+describe('welder stamps', () => {
+	// Unicode Standard Annex #15 (NFKC) and the Unicode case mapping: é and É are one letter
+	// in two cases, and a full-width Ｂ is a B.
+	it('are one stamp in any case and any width: the second is a 409, not a fault', () => {
+		const userId = demoUserId('foreman@tacksheet.test');
+		welders.create(projectId, welderSchema.parse({ stamp: 'é1', name: 'Dana Kovač' }), userId);
+		for (const stamp of ['É1', 'é1 ']) {
+			expect(() =>
+				welders.create(projectId, welderSchema.parse({ stamp, name: 'Ilse Varga' }), userId)
+			).toThrow(expect.objectContaining({ status: 409, field: 'stamp' }));
+		}
+		welders.create(projectId, welderSchema.parse({ stamp: 'Ｂ７７', name: 'Noor Haddad' }), userId);
+		expect(() =>
+			welders.create(projectId, welderSchema.parse({ stamp: 'b77', name: 'Ilse Varga' }), userId)
+		).toThrow(expect.objectContaining({ status: 409 }));
 	});
 });

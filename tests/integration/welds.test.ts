@@ -17,6 +17,7 @@ import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspectio
 import type { JointFields } from '$lib/schemas/joint';
 import { GET, POST } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { stampKey } from '$lib/domain';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -84,7 +85,7 @@ function newWelder(qualifications: Qualification[], status: 'active' | 'inactive
 	const stamp = `W${++stamps}`;
 	const id = db
 		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Welder ${stamp}`, status })
+		.values({ projectId, stamp, stampKey: stampKey(stamp), name: `Welder ${stamp}`, status })
 		.returning()
 		.get().id;
 	for (const q of qualifications) {

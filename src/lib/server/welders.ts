@@ -6,6 +6,7 @@ import { DomainError } from './errors';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
+import { stampKey } from '$lib/domain';
 import { standingSql } from './inspections';
 import { addDays, checkQualification, continuityValidThrough } from './welds';
 import type { QualificationInput, WelderInput } from '$lib/schemas/outstanding';
@@ -167,7 +168,7 @@ export function create(projectId: number, input: WelderInput, userId: string) {
 			.where(
 				and(
 					eq(schema.welders.projectId, projectId),
-					sql`upper(${schema.welders.stamp}) = ${input.stamp.toUpperCase()}`
+					eq(schema.welders.stampKey, stampKey(input.stamp))
 				)
 			)
 			.get();
@@ -180,7 +181,13 @@ export function create(projectId: number, input: WelderInput, userId: string) {
 		}
 		const welder = tx
 			.insert(schema.welders)
-			.values({ projectId, stamp: input.stamp, name: input.name, employer: input.employer })
+			.values({
+				projectId,
+				stamp: input.stamp,
+				stampKey: stampKey(input.stamp),
+				name: input.name,
+				employer: input.employer
+			})
 			.returning()
 			.get();
 		for (const q of input.processes) {

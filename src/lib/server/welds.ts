@@ -17,6 +17,7 @@ import { lockedJoint, refreshState, row, stateInput } from './joints';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
 import { can, type Principal } from '$lib/permissions';
+import { stampKey } from '$lib/domain';
 import type { RecordWeld } from '$lib/schemas/inspection';
 import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
 
@@ -322,14 +323,11 @@ function findWelders(tx: Tx, projectId: number, stamps: string[]): Map<string, S
 		.where(
 			and(
 				eq(schema.welders.projectId, projectId),
-				inArray(
-					sql`upper(${schema.welders.stamp})`,
-					stamps.map((s) => s.toUpperCase())
-				)
+				inArray(schema.welders.stampKey, stamps.map(stampKey))
 			)
 		)
 		.all();
-	return new Map(rows.map((r) => [r.stamp.toUpperCase(), r]));
+	return new Map(rows.map((r) => [stampKey(r.stamp), r]));
 }
 
 function qualificationsOf(tx: Tx, welderIds: number[]) {
@@ -395,7 +393,7 @@ export function record(
 		const stamps = passes.map((pass) => input.welders[pass]!);
 		const found = findWelders(tx, joint.projectId, stamps);
 		const assigned = passes.map((pass) => {
-			const welder = found.get(input.welders[pass]!.toUpperCase());
+			const welder = found.get(stampKey(input.welders[pass]!));
 			if (!welder) {
 				throw new DomainError(
 					`No welder with stamp ${input.welders[pass]} is registered on this project; check the stamp, or have the welder added to the register first.`,

@@ -428,12 +428,17 @@ export const welders = sqliteTable(
 			.notNull()
 			.references(() => projects.id, { onDelete: 'cascade' }),
 		stamp: text('stamp').notNull(),
+		/** The stamp as compared (stampKey of $lib/domain): one welder per stamp, in any case. */
+		stampKey: text('stamp_key').notNull().default(''),
 		name: text('name').notNull(),
 		employer: text('employer').notNull().default(''),
 		status: text('status').$type<'active' | 'inactive'>().notNull().default('active'),
 		createdAt: createdAt()
 	},
-	(t) => [uniqueIndex('welders_project_stamp').on(t.projectId, t.stamp)]
+	(t) => [
+		uniqueIndex('welders_project_stamp').on(t.projectId, t.stamp),
+		uniqueIndex('welders_project_stamp_key').on(t.projectId, t.stampKey)
+	]
 );
 
 /** A welder's qualification for one process; continuity runs from `lastUsedOn`. */

@@ -28,6 +28,7 @@ import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength } from '$lib/units';
 import type { JointState } from '$lib/joint-state';
 import type { UnitSystem } from '../db/schema';
+import { stampKey } from '$lib/domain';
 
 /** Small, fast, seedable: the same seed gives the same job. */
 export function mulberry32(seed: number): () => number {
@@ -233,7 +234,13 @@ function seedWelders(tx: Tx, projectId: number, project: DemoProject): Map<strin
 	for (const welder of project.welders) {
 		const id = tx
 			.insert(schema.welders)
-			.values({ projectId, stamp: welder.stamp, name: welder.name, employer: welder.employer })
+			.values({
+				projectId,
+				stamp: welder.stamp,
+				stampKey: stampKey(welder.stamp),
+				name: welder.name,
+				employer: welder.employer
+			})
 			.returning({ id: schema.welders.id })
 			.get().id;
 		for (const q of welder.processes) {
