@@ -8,7 +8,7 @@ import { db, schema } from './db';
 import * as audit from './audit';
 import { stampKey } from '$lib/domain';
 import { standingSql } from './inspections';
-import { addDays, checkQualification, continuityValidThrough } from './welds';
+import { addDays, checkQualification, validThrough } from '$lib/welder-qualification';
 import type { QualificationInput, WelderInput } from '$lib/schemas/outstanding';
 
 /** Lapses within this many days are listed so the foreman can renew or reassign in time. */
@@ -18,20 +18,8 @@ function todayUtc(): string {
 	return new Date().toISOString().slice(0, 10);
 }
 
-type QualificationRow = typeof schema.welderQualifications.$inferSelect;
-
-/**
- * The last day the welder may weld the process: the six-month continuity date of welds.ts
- * (ASME BPVC Section IX QW-322.1; AWS D1.1:2020 6.2.3.1), counted from the later of the test
- * and the last use as checkQualification counts it, or the record's own expiry if sooner.
- */
-export function validThrough(
-	q: Pick<QualificationRow, 'qualifiedOn' | 'expiresOn' | 'lastUsedOn'>
-) {
-	const from = q.lastUsedOn && q.lastUsedOn > q.qualifiedOn ? q.lastUsedOn : q.qualifiedOn;
-	const continuity = continuityValidThrough(from);
-	return q.expiresOn && q.expiresOn < continuity ? q.expiresOn : continuity;
-}
+/** The last day a welder may weld a process, for the register. */
+export { validThrough };
 
 /** Per welder: welds stamped, welds with an NDE result, and of those, welds rejected. */
 function records(projectId: number) {
