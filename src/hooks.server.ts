@@ -2,7 +2,7 @@ import { error, json, type Handle, type RequestEvent, type ServerInit } from '@s
 import { sequence } from '@sveltejs/kit/hooks';
 import { handle as authentication } from './auth';
 import { getDb } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
+import { firstStart } from '$lib/server/first-start';
 import * as mail from '$lib/server/mail';
 import * as users from '$lib/server/users';
 import * as guard from '$lib/server/sign-in-guard';
@@ -19,7 +19,7 @@ export const init: ServerInit = async () => {
 	exportJobs.recoverInterrupted();
 	// Turnover zips past EXPORT_KEEP_DAYS go now and every hour after; their records stay.
 	exportJobs.startCleanup();
-	const result = await seedIfEmpty(db);
+	const result = await firstStart(db);
 	if (result.seeded) {
 		console.log(
 			`Tacksheet: first start, seeded ${result.users} users, ${result.projects} projects, ${result.drawings} drawings, ${result.joints} joints.`

@@ -1,8 +1,10 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
 import { DomainError } from './errors';
 import crypto from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
-import { db, schema } from './db';
+import { and, asc, count, eq, isNull } from 'drizzle-orm';
+import { db, schema, type Db } from './db';
+import { config } from './config';
+import { newPassword } from '$lib/schemas/account';
 import * as audit from './audit';
 import { hashPassword, verifyPassword } from './passwords';
 import type { Principal, ProjectRole } from '$lib/permissions';
@@ -354,4 +356,43 @@ export function principalFromToken(token: string): SignedInUser | null {
 			.run();
 	}
 	return { ...user, tokenId: row.id };
+}
+
+/**
+ * The first administrator of a production install (no demo job): from ADMIN_EMAIL and
+ * ADMIN_PASSWORD, once, into an empty database. Returns whether it was created; an install
+ * without them, or with a password the password rule refuses, does not start.
+ */
+export async function setUpFirstAdmin(into: Db = db): Promise<boolean> {
+	const existing = into.select({ n: count() }).from(schema.users).get()?.n ?? 0;
+	if (existing > 0) return false;
+	if (!config.adminEmail || !config.adminPassword) {
+		throw new Error(
+			'TACKSHEET_DEMO=0 starts with an empty database: set ADMIN_EMAIL and ADMIN_PASSWORD for the first administrator.'
+		);
+	}
+	const password = newPassword.safeParse(config.adminPassword);
+	if (!password.success) {
+		throw new Error(`ADMIN_PASSWORD: ${password.error.issues[0].message}`);
+	}
+	const user = into
+		.insert(schema.users)
+		.values({
+			email: config.adminEmail.toLowerCase(),
+			name: 'Administrator',
+			isAdmin: true,
+			passwordHash: await hashPassword(config.adminPassword)
+		})
+		.returning({ id: schema.users.id })
+		.get();
+	audit.record(
+		{
+			action: 'create',
+			entity: 'user',
+			entityId: user.id,
+			after: { email: config.adminEmail, isAdmin: true }
+		},
+		into
+	);
+	return true;
 }

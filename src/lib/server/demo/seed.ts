@@ -11,6 +11,7 @@ import { config } from '../config';
 import { hashPassword } from '../passwords';
 import * as storage from '../storage';
 import * as audit from '../audit';
+import * as users from '../users';
 import { refreshState } from '../joints';
 import { renderDemoSheet, type DemoWeld } from './sheets';
 import {
@@ -68,39 +69,11 @@ export interface SeedResult {
 export async function seedIfEmpty(db: Db = defaultDb): Promise<SeedResult> {
 	const existing = db.select({ n: count() }).from(schema.users).get()?.n ?? 0;
 	if (existing > 0) return { seeded: false, users: existing, projects: 0, drawings: 0, joints: 0 };
-	if (!config.demo) return seedAdminOnly(db);
+	if (!config.demo) {
+		const created = await users.setUpFirstAdmin(db);
+		return { seeded: created, users: created ? 1 : 0, projects: 0, drawings: 0, joints: 0 };
+	}
 	return seedDemo(db);
-}
-
-async function seedAdminOnly(db: Db): Promise<SeedResult> {
-	if (!config.adminEmail || !config.adminPassword) {
-		throw new Error(
-			'TACKSHEET_DEMO=0 starts with an empty database: set ADMIN_EMAIL and ADMIN_PASSWORD for the first administrator.'
-		);
-	}
-	if (config.adminPassword.length < 12) {
-		throw new Error('ADMIN_PASSWORD must be at least 12 characters long.');
-	}
-	const user = db
-		.insert(schema.users)
-		.values({
-			email: config.adminEmail.toLowerCase(),
-			name: 'Administrator',
-			isAdmin: true,
-			passwordHash: await hashPassword(config.adminPassword)
-		})
-		.returning({ id: schema.users.id })
-		.get();
-	audit.record(
-		{
-			action: 'create',
-			entity: 'user',
-			entityId: user.id,
-			after: { email: config.adminEmail, isAdmin: true }
-		},
-		db
-	);
-	return { seeded: true, users: 1, projects: 0, drawings: 0, joints: 0 };
 }
 
 async function seedDemo(db: Db): Promise<SeedResult> {
