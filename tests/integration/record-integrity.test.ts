@@ -24,6 +24,7 @@ import * as pins from '$lib/server/pins';
 import * as welders from '$lib/server/welders';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { readCsv } from '../fixtures/csv';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -65,30 +66,6 @@ function fitup(jointId: number, decision: 'accept' | 'reject', more: object = {}
 		}),
 		inspectorId
 	);
-}
-
-/** A small RFC 4180 reader: quoted fields, doubled quotes, CRLF records. */
-function readCsv(text: string): string[][] {
-	const records: string[][] = [];
-	let record: string[] = [];
-	let field = '';
-	let quoted = false;
-	for (let n = 0; n < text.length; n++) {
-		const c = text[n];
-		if (quoted) {
-			if (c === '"' && text[n + 1] === '"') ((field += '"'), n++);
-			else if (c === '"') quoted = false;
-			else field += c;
-		} else if (c === '"') quoted = true;
-		else if (c === ',') (record.push(field), (field = ''));
-		else if (c === '\r' && text[n + 1] === '\n') {
-			record.push(field);
-			records.push(record);
-			((record = []), (field = ''), n++);
-		} else field += c;
-	}
-	if (field || record.length) records.push([...record, field]);
-	return records;
 }
 
 describe('which inspection stands, everywhere', () => {
