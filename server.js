@@ -3,6 +3,7 @@
 // and adapter-node's body limit would hold a whole upload in memory.
 import http from 'node:http';
 import { createUploadStage } from './server/upload-stage.js';
+import { DEFAULT_UPLOADS_DIR, uploadMaxMb } from './server/defaults.js';
 
 const BASELINE_HEADERS = {
 	'x-content-type-options': 'nosniff',
@@ -16,8 +17,8 @@ const BASELINE_HEADERS = {
 export async function startServer() {
 	const { handler } = await import('./build/handler.js');
 	const stage = createUploadStage({
-		uploadsDir: process.env.UPLOADS_DIR || './uploads',
-		maxMb: Number(process.env.UPLOAD_MAX_MB) || 200
+		uploadsDir: process.env.UPLOADS_DIR || DEFAULT_UPLOADS_DIR,
+		maxMb: uploadMaxMb()
 	});
 	const port = Number(process.env.PORT || 3000);
 	const host = process.env.HOST || '0.0.0.0';

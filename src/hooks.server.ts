@@ -3,7 +3,7 @@ import { sequence } from '@sveltejs/kit/hooks';
 import { getToken } from '@auth/core/jwt';
 import { handle as authentication, LINK_PURPOSE_HEADER, type SessionUser } from './auth';
 import { getDb } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
+import { firstStart } from '$lib/server/first-start';
 import * as mail from '$lib/server/mail';
 import * as users from '$lib/server/users';
 import * as guard from '$lib/server/sign-in-guard';
@@ -22,7 +22,7 @@ export const init: ServerInit = async () => {
 	await exportJobs.removeUnfinished();
 	// Turnover zips past EXPORT_KEEP_DAYS go now and every hour after; their records stay.
 	exportJobs.startCleanup();
-	const result = await seedIfEmpty(db);
+	const result = await firstStart(db);
 	if (result.seeded) {
 		console.log(
 			`Tacksheet: first start, seeded ${result.users} users, ${result.projects} projects, ${result.drawings} drawings, ${result.joints} joints.`

@@ -2,7 +2,8 @@
  * Reading what inspectors type off their gauges, and writing it back the way they read it.
  * Lengths are held in millimetres and angles in degrees; 1 in = 25.4 mm exactly.
  */
-export type UnitSystem = 'imperial' | 'metric';
+import type { UnitSystem } from './domain';
+export type { UnitSystem };
 export type TypedUnit = 'in' | 'mm' | 'deg';
 
 export const MM_PER_INCH = 25.4;

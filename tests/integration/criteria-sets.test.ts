@@ -79,6 +79,7 @@ function weldedJoint(criteriaSetId: string) {
 	inspections.record(
 		joint.id,
 		recordInspectionSchema.parse({
+			version: joints.row(joint.id)!.version,
 			stage: 'fitup',
 			readings: FITUP,
 			decision: 'accept'
@@ -93,6 +94,7 @@ function visual(jointId: number, undercutDepth: string, decision: 'accept' | 're
 	return inspections.record(
 		jointId,
 		recordInspectionSchema.parse({
+			version: joints.row(jointId)!.version,
 			stage: 'visual',
 			readings: { ...CLEAN, undercutDepth },
 			decision
@@ -390,6 +392,7 @@ describe('who may change criteria, and bad input', () => {
 			inspections.record(
 				joint.id,
 				recordInspectionSchema.parse({
+					version: joints.row(joint.id)!.version,
 					stage: 'fitup',
 					readings: { rootOpening: '1/8' },
 					decision: 'accept'

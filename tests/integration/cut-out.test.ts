@@ -71,7 +71,11 @@ function newJoint(fields: Partial<JointFields> = {}, number?: string) {
 }
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 /** A joint welded and rejected at visual: in repair. */
 function jointInRepair(fields: Partial<JointFields> = {}, number?: string) {

@@ -67,17 +67,23 @@ function jointIn(state: 'awaiting_fitup' | 'awaiting_visual') {
 	if (state === 'awaiting_visual') {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 	}
 	return joints.row(joint.id)!;
@@ -91,7 +97,7 @@ async function post(body: unknown) {
 			body: JSON.stringify(body)
 		}),
 		url: new URL(`http://localhost/api/projects/${projectId}/inspection-requests`),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }
@@ -173,7 +179,12 @@ describe('requesting an inspection', () => {
 			.run();
 		const { inspection } = inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'visual', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'visual',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		const closed = db

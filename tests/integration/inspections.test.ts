@@ -66,7 +66,11 @@ function newJoint(fields: Partial<JointFields> = {}) {
 }
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 /** The cached state column says what the records say. */
 function expectCacheAgrees(jointId: number) {
@@ -87,11 +91,18 @@ function request(path: string, method: 'GET' | 'POST', body?: unknown) {
 	});
 }
 
+/** The body as the joint card sends it: with the joint's version as last read, unless given. */
+function withVersion(jointId: number, body: unknown) {
+	return body === undefined
+		? undefined
+		: { version: joints.row(jointId)?.version, ...(body as object) };
+}
+
 async function call(handler: unknown, jointId: number, userId: string, body?: unknown) {
 	const method = body === undefined ? 'GET' : 'POST';
 	const response = await (handler as Handler)({
 		params: { jointId: String(jointId) },
-		request: request(`/api/joints/${jointId}`, method, body),
+		request: request(`/api/joints/${jointId}`, method, withVersion(jointId, body)),
 		locals: { user: users.principal(userId) }
 	} as never);
 	return { status: response.status, body: await response.json() };

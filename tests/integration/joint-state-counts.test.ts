@@ -7,6 +7,7 @@ import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import * as joints from '$lib/server/joints';
+import * as users from '$lib/server/users';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
 import * as weldLog from '$lib/server/weld-log';
@@ -62,7 +63,12 @@ function placeJoint() {
 const fitup = (jointId: number, decision: 'accept' | 'reject') =>
 	inspections.record(
 		jointId,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision }),
+		recordInspectionSchema.parse({
+			version: joints.row(jointId)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision
+		}),
 		inspectorId
 	);
 
@@ -114,11 +120,12 @@ describe('per-drawing state counts', () => {
 		welds.record(
 			a.id,
 			recordWeldSchema.parse({
+				version: joints.row(a.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		expect(joints.row(a.id)!.state).toBe('awaiting_visual');
 		expect(countsTable()).toEqual(directCounts());

@@ -2,6 +2,7 @@ import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
 import * as joints from '$lib/server/joints';
+import * as pins from '$lib/server/pins';
 import * as events from '$lib/server/events';
 import { deriveJointState } from '$lib/joint-state';
 import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
@@ -93,10 +94,10 @@ describe('moving, editing and voiding', () => {
 			{ revisionId, pageIndex: 0, x: 200, y: 200, joint: {} },
 			userId
 		);
-		const moved = joints.movePin(pin.id, { x: 210, y: 190, version: joint.version }, userId);
+		const moved = pins.move(pin.id, { x: 210, y: 190, version: joint.version }, userId);
 		expect([moved.pin.x, moved.pin.y]).toEqual([210, 190]);
 		expect(moved.version).toBe(joint.version + 1);
-		expect(() => joints.movePin(pin.id, { x: 0, y: 0, version: joint.version }, userId)).toThrow(
+		expect(() => pins.move(pin.id, { x: 0, y: 0, version: joint.version }, userId)).toThrow(
 			expect.objectContaining({ status: 409, field: 'version' })
 		);
 		const history = joints.detail(joint.id)!.changes.map((c) => c.action);
@@ -147,7 +148,7 @@ describe('moving, editing and voiding', () => {
 
 describe('pins of a revision', () => {
 	it('lists every pin with its joint state, numbers in reading order', () => {
-		const items = joints.pinsOf(revisionId);
+		const items = pins.ofRevision(revisionId);
 		expect(items.length).toBeGreaterThan(10);
 		const keys = items.map((i) => i.number);
 		expect(keys.indexOf('5')).toBeLessThan(keys.indexOf('5A'));

@@ -68,7 +68,12 @@ function placeJoint(accepted: boolean) {
 	if (accepted) {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 	}
@@ -177,11 +182,12 @@ describe('filters', () => {
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		const board = outstanding.board(projectId, query({ welder: welder.id }));
 		const rows = [...board.owed.foreman, ...board.owed.inspector].flatMap((g) => g.items);
@@ -195,7 +201,7 @@ describe('GET /api/projects/{id}/outstanding', () => {
 	const get = async (search: string) => {
 		const response = await (GET as unknown as Handler)({
 			url: new URL(`http://localhost/api/projects/${projectId}/outstanding${search}`),
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		return { status: response.status, body: await response.json() };
 	};

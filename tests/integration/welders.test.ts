@@ -36,7 +36,7 @@ async function post(body: unknown) {
 			headers: { 'content-type': 'application/json' },
 			body: JSON.stringify(body)
 		}),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }
@@ -69,7 +69,7 @@ describe('adding a welder', () => {
 
 	it('keeps the GET shape { items } and adds the lapsing list', async () => {
 		const response = await (GET as unknown as Handler)({
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		const body = await response.json();
 		expect(Array.isArray(body.items)).toBe(true);
@@ -177,12 +177,24 @@ describe("a welder's record", () => {
 			inspectorId
 		);
 		const inspect = (body: unknown) =>
-			inspections.record(joint.id, recordInspectionSchema.parse(body), inspectorId);
+			inspections.record(
+				joint.id,
+				recordInspectionSchema.parse({
+					version: joints.row(joint.id)!.version,
+					...(body as object)
+				}),
+				inspectorId
+			);
 		const weld = (weldedOn: string) =>
 			welds.record(
 				joint.id,
-				recordWeldSchema.parse({ weldedOn, process: 'GTAW', welders: { root: 'RR1' } }),
-				{ id: foremanId, isAdmin: false }
+				recordWeldSchema.parse({
+					version: joints.row(joint.id)!.version,
+					weldedOn,
+					process: 'GTAW',
+					welders: { root: 'RR1' }
+				}),
+				users.principal(foremanId)!
 			);
 		inspect({ stage: 'fitup', readings: {}, decision: 'accept' });
 		weld('2025-06-10');

@@ -17,6 +17,7 @@ import type { JointFields } from '$lib/schemas/joint';
 import { GET, POST } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
 import { makeProject } from '../fixtures/projects';
 import { qualifiedWelder } from '../fixtures/welders';
+import { stampKey } from '$lib/domain';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -27,8 +28,8 @@ let projectId: number;
 let revisionId: number;
 /** A welder's stamp on another project. */
 let elsewhereStamp: string;
-const foreman = () => ({ id: foremanId, isAdmin: false });
-const admin = () => ({ id: adminId, isAdmin: true });
+const foreman = () => users.principal(foremanId)!;
+const admin = () => users.principal(adminId)!;
 
 beforeAll(async () => {
 	const job = await makeProject();
@@ -62,7 +63,12 @@ function readyJoint(fields: Partial<JointFields> = {}) {
 	);
 	inspections.record(
 		joint.id,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+		recordInspectionSchema.parse({
+			version: joints.row(joint.id)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision: 'accept'
+		}),
 		inspectorId
 	);
 	return joints.row(joint.id)!;
@@ -80,7 +86,7 @@ function newWelder(qualifications: Qualification[], status: 'active' | 'inactive
 	const stamp = `W${++stamps}`;
 	const id = db
 		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Welder ${stamp}`, status })
+		.values({ projectId, stamp, stampKey: stampKey(stamp), name: `Welder ${stamp}`, status })
 		.returning()
 		.get().id;
 	for (const q of qualifications) {
@@ -111,7 +117,11 @@ function lastUsed(welderId: number, process: string) {
 }
 
 const weld = (jointId: number, body: unknown, user = foreman()) =>
-	welds.record(jointId, recordWeldSchema.parse(body), user);
+	welds.record(
+		jointId,
+		recordWeldSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		user
+	);
 
 function expectCacheAgrees(jointId: number) {
 	const cached = joints.row(jointId)!;
@@ -126,7 +136,8 @@ async function post(jointId: number, userId: string, body: unknown) {
 		request: new Request(`http://localhost/api/joints/${jointId}/welds`, {
 			method: 'POST',
 			headers: { 'content-type': 'application/json' },
-			body: JSON.stringify(body)
+			// As the weld form sends it: with the joint's version as last read, unless given.
+			body: JSON.stringify({ version: joints.row(jointId)?.version, ...(body as object) })
 		}),
 		locals: { user: users.principal(userId) }
 	} as never);
@@ -216,6 +227,7 @@ describe('recording a weld', () => {
 		inspections.record(
 			joint.id,
 			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
 				stage: 'visual',
 				// ASME B31.3-2018 Table 341.3.2 criterion H: Tw = 0.216 in → min(1/32, 0.054) = 1/32 in.
 				readings: { undercutDepth: '1/16' },

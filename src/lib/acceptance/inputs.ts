@@ -22,6 +22,7 @@ import {
 	type JointKind,
 	type Loading,
 	type Member,
+	type ReadReading,
 	type ReadingError,
 	type ReadingsInput,
 	type StressDirection
@@ -99,12 +100,17 @@ function readFlag(value: unknown): boolean | undefined {
 	return YES.includes(answer) ? true : NO.includes(answer) ? false : undefined;
 }
 
+/**
+ * The readings given, parsed once: by id for the checks, and each as the record keeps it
+ * (the text as typed beside its value). Unreadable ones are collected in `errors`.
+ */
 export function readReadings(
 	readings: ReadingsInput,
 	units: UnitSystem,
 	errors: ReadingError[]
-): ParsedReadings {
+): { parsed: ParsedReadings; read: ReadReading[] } {
 	const parsed: Partial<Record<ReadingId, number | boolean>> = {};
+	const read: ReadReading[] = [];
 	for (const [id, value] of Object.entries(readings ?? {})) {
 		if (!isReadingId(id) || isBlank(value)) continue;
 		const { kind, label } = readingDefinitions[id];
@@ -112,7 +118,15 @@ export function readReadings(
 		if (kind === 'boolean') {
 			const flag = readFlag(value);
 			if (flag === undefined) errors.push({ field, message: `${label}: answer yes or no` });
-			else parsed[id] = flag;
+			else {
+				parsed[id] = flag;
+				read.push({
+					id,
+					text: typeof value === 'boolean' ? (value ? 'yes' : 'no') : String(value),
+					value: flag,
+					unit: 'bool'
+				});
+			}
 			continue;
 		}
 		if (typeof value !== 'string' && typeof value !== 'number') {
@@ -124,8 +138,18 @@ export function readReadings(
 			kind === 'angle'
 				? parseAngle(value, { reading: quantitySpec(id) })
 				: parseLength(value, { units, reading: quantitySpec(id) });
-		if (result.ok) parsed[id] = result.value;
-		else errors.push({ field, message: result.message });
+		if (!result.ok) {
+			errors.push({ field, message: result.message });
+			continue;
+		}
+		parsed[id] = result.value;
+		const unit = kind === 'angle' ? 'deg' : 'mm';
+		read.push({
+			id,
+			text: typeof value === 'number' ? `${value}${unit === 'deg' ? '°' : ' mm'}` : value,
+			value: result.value,
+			unit
+		});
 	}
-	return parsed as ParsedReadings;
+	return { parsed: parsed as ParsedReadings, read };
 }

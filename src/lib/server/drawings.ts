@@ -1,4 +1,5 @@
 /** The drawing register: drawings, their revisions and sheets, uploads and supersede. */
+import { DomainError } from './errors';
 import { and, asc, count, desc, eq, exists, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as storage from './storage';
@@ -9,15 +10,6 @@ import type { StagedUpload } from './staged-uploads';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import type { z } from 'zod';
 import type { DrawingListQuery, newDrawingSchema, newRevisionSchema } from '$lib/schemas/drawing';
-
-export class DrawingError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409 | 413 | 415 | 422
-	) {
-		super(message);
-	}
-}
 
 const d = schema.drawings;
 const r = schema.revisions;
@@ -293,7 +285,7 @@ type NewRevision = z.infer<typeof newRevisionSchema>;
 function asConflict(error: unknown): unknown {
 	const code = (error as { code?: unknown } | null)?.code;
 	if (typeof code === 'string' && code.startsWith('SQLITE_CONSTRAINT_UNIQUE'))
-		return new DrawingError(
+		return new DomainError(
 			'Another upload registered the same drawing number or revision label first. Reload the register and check.',
 			409
 		);
@@ -303,7 +295,7 @@ function asConflict(error: unknown): unknown {
 /** Refused uploads leave nothing behind: the staged file is removed on every failure path. */
 async function checkedPdf(staged: StagedUpload) {
 	const inspected = await inspectPdf(staged.tempPath);
-	if (!inspected.ok) throw new DrawingError(inspected.message, 422);
+	if (!inspected.ok) throw new DomainError(inspected.message, 422);
 	return inspected;
 }
 
@@ -373,7 +365,7 @@ export async function create(
 				.where(and(eq(d.projectId, projectId), eq(d.number, input.number)))
 				.get()
 		) {
-			throw new DrawingError(
+			throw new DomainError(
 				`Drawing ${input.number} is already registered. Upload the file as a new revision of it instead.`,
 				409
 			);
@@ -390,7 +382,7 @@ export async function create(
 					.where(and(eq(d.projectId, projectId), eq(d.number, input.number)))
 					.get()
 			)
-				throw new DrawingError(
+				throw new DomainError(
 					`Drawing ${input.number} was registered meanwhile. Upload the file as a new revision of it instead.`,
 					409
 				);
@@ -450,17 +442,17 @@ export async function addRevision(
 	const key = storage.newKey('revisions', '.pdf');
 	try {
 		const drawing = get(projectId, drawingId);
-		if (!drawing) throw new DrawingError('There is no such drawing in this project.', 404);
+		if (!drawing) throw new DomainError('There is no such drawing in this project.', 404);
 		const existing = history(drawingId);
 		if (existing.some((rev) => rev.label === input.label)) {
-			throw new DrawingError(
+			throw new DomainError(
 				`Drawing ${drawing.number} already has a revision ${input.label}. Use the next label.`,
 				409
 			);
 		}
 		const same = existing.find((rev) => rev.sha256 === staged.sha256);
 		if (same) {
-			throw new DrawingError(
+			throw new DomainError(
 				`This very file is already stored as revision ${same.label} of ${drawing.number}.`,
 				409
 			);
@@ -478,7 +470,7 @@ export async function addRevision(
 				)
 				.get();
 			if (clash)
-				throw new DrawingError(
+				throw new DomainError(
 					clash.label === input.label
 						? `Drawing ${drawing.number} already has a revision ${input.label}. Use the next label.`
 						: `This very file is already stored as revision ${clash.label} of ${drawing.number}.`,

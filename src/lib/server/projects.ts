@@ -1,9 +1,11 @@
 /** Projects and the counts their overview shows. */
 import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
-import { db, schema } from './db';
+import { db, schema, type Db } from './db';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import * as audit from './audit';
 import type { z } from 'zod';
+import type { UnitSystem } from '$lib/domain';
+import { visibleProjectIds, type Principal } from '$lib/permissions';
 import type { projectSettingsSchema } from '$lib/schemas/project';
 
 export function list(projectIds?: readonly number[]) {
@@ -161,4 +163,20 @@ export function updateSettings(
 		);
 		return updated;
 	});
+}
+
+/** The project's unit system: what a bare number typed on its forms means. */
+export function unitsOf(projectId: number, reader: Pick<Db, 'select'> = db): UnitSystem {
+	return (
+		reader
+			.select({ units: schema.projects.units })
+			.from(schema.projects)
+			.where(eq(schema.projects.id, projectId))
+			.get()?.units ?? 'imperial'
+	);
+}
+
+/** The projects the caller may see, as the project switcher and the API list them. */
+export function visibleTo(principal: Principal) {
+	return list(visibleProjectIds(principal));
 }

@@ -1,7 +1,10 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
+import { DomainError } from './errors';
 import crypto from 'node:crypto';
-import { and, asc, eq, isNull, sql } from 'drizzle-orm';
-import { db, schema } from './db';
+import { and, asc, count, eq, isNull, sql } from 'drizzle-orm';
+import { db, schema, type Db } from './db';
+import { config } from './config';
+import { newPassword } from '$lib/schemas/account';
 import * as audit from './audit';
 import { hashPassword, verifyPassword } from './passwords';
 import type { Principal, ProjectRole } from '$lib/permissions';
@@ -118,20 +121,11 @@ export function list() {
 	}));
 }
 
-export class AccountError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409
-	) {
-		super(message);
-	}
-}
-
 export function invite(
 	input: { email: string; name: string; projectId?: number; role?: ProjectRole },
 	actorId: string
 ) {
-	if (byEmail(input.email)) throw new AccountError(`${input.email} already has an account.`, 409);
+	if (byEmail(input.email)) throw new DomainError(`${input.email} already has an account.`, 409);
 	return db.transaction((tx) => {
 		const user = tx
 			.insert(schema.users)
@@ -171,9 +165,9 @@ export function invite(
 
 export function setDisabled(userId: string, disabled: boolean, actorId: string) {
 	if (userId === actorId && disabled)
-		throw new AccountError('You cannot disable your own account.', 409);
+		throw new DomainError('You cannot disable your own account.', 409);
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users)
 			.set({ disabledAt: disabled ? Date.now() : null })
@@ -204,7 +198,7 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
  */
 export function resetPassword(userId: string, actorId: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash: null }).where(eq(schema.users.id, userId)).run();
 		endSessions(userId, tx);
@@ -226,9 +220,9 @@ export function resetPassword(userId: string, actorId: string) {
 
 export async function changePassword(userId: string, current: string, next: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	if (user.passwordHash && !(await verifyPassword(current, user.passwordHash))) {
-		throw new AccountError('Your current password is not right.', 400);
+		throw new DomainError('Your current password is not right.', 400, 'current');
 	}
 	const passwordHash = await hashPassword(next);
 	// Every session ends, this one too (the caller signs it in again); personal API tokens are
@@ -379,7 +373,7 @@ export function revokeToken(userId: string, tokenId: number) {
 			audit.record({ action: 'token_revoke', entity: 'api_token', entityId: tokenId, userId }, tx);
 		return result.changes > 0;
 	});
-	if (!done) throw new AccountError('There is no such live token.', 404);
+	if (!done) throw new DomainError('There is no such live token.', 404);
 }
 
 /** The user behind a bearer token, or null for an unknown or revoked one. */
@@ -408,4 +402,43 @@ export function principalFromToken(token: string): SignedInUser | null {
 			.run();
 	}
 	return { ...user, tokenId: row.id };
+}
+
+/**
+ * The first administrator of a production install (no demo job): from ADMIN_EMAIL and
+ * ADMIN_PASSWORD, once, into an empty database. Returns whether it was created; an install
+ * without them, or with a password the password rule refuses, does not start.
+ */
+export async function setUpFirstAdmin(into: Db = db): Promise<boolean> {
+	const existing = into.select({ n: count() }).from(schema.users).get()?.n ?? 0;
+	if (existing > 0) return false;
+	if (!config.adminEmail || !config.adminPassword) {
+		throw new Error(
+			'TACKSHEET_DEMO=0 starts with an empty database: set ADMIN_EMAIL and ADMIN_PASSWORD for the first administrator.'
+		);
+	}
+	const password = newPassword.safeParse(config.adminPassword);
+	if (!password.success) {
+		throw new Error(`ADMIN_PASSWORD: ${password.error.issues[0].message}`);
+	}
+	const user = into
+		.insert(schema.users)
+		.values({
+			email: config.adminEmail.toLowerCase(),
+			name: 'Administrator',
+			isAdmin: true,
+			passwordHash: await hashPassword(config.adminPassword)
+		})
+		.returning({ id: schema.users.id })
+		.get();
+	audit.record(
+		{
+			action: 'create',
+			entity: 'user',
+			entityId: user.id,
+			after: { email: config.adminEmail, isAdmin: true }
+		},
+		into
+	);
+	return true;
 }

@@ -4,8 +4,7 @@ import type { LayoutServerLoad } from './$types';
 export const load = (async ({ locals }) => {
 	// The hooks have already sent anyone signed out to the sign-in page.
 	const user = locals.user!;
-	// eslint-disable-next-line no-restricted-syntax -- visible projects not yet a permission
-	const visible = projects.list(user.isAdmin ? undefined : Object.keys(user.roles).map(Number));
+	const visible = projects.visibleTo(user);
 	return {
 		user: {
 			id: user.id,

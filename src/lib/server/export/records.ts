@@ -8,7 +8,7 @@ import { db, schema } from '../db';
 import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
 import { weldLogFilter } from '$lib/schemas/weld-log';
-import { displayWeldNumber } from '$lib/joint-state';
+import { correctionsOf, displayWeldNumber } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
 import { withEntryDates } from './zip-dates';
@@ -82,7 +82,8 @@ const HEADERS = [
 	'Technician',
 	'Criteria set',
 	'Record id',
-	'Corrects record'
+	'Corrects record',
+	'Stands'
 ];
 
 function shownValue(value: number | boolean | null, unit: string | null): string {
@@ -148,7 +149,10 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 				a.inspectedAt - b.inspectedAt ||
 				a.id - b.id
 		);
+		// A drawing's joints sit in one chunk, so every correction is beside the row it names.
+		const correctedBy = correctionsOf(rows);
 		for (const row of rows) {
+			const correction = correctedBy.get(row.id);
 			lines.push(
 				csvLine([
 					numberOf.get(row.drawingId) ?? '',
@@ -173,7 +177,8 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						? `${row.criteriaSetId}${row.criteriaSetVersion != null ? ` v${row.criteriaSetVersion}` : ''}`
 						: '',
 					row.id,
-					row.supersedesId ?? ''
+					row.supersedesId ?? '',
+					correction ? `no: corrected by ${correction.id}` : 'yes'
 				])
 			);
 		}

@@ -1,7 +1,8 @@
-import { message, setError, superValidate } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as users from '$lib/server/users';
 import { signInWithPassword } from '../../../auth';
+import { formFailure } from '$lib/server/errors';
 import * as projects from '$lib/server/projects';
 import { changePasswordSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
@@ -35,8 +36,7 @@ export const actions = {
 			await users.changePassword(locals.user!.id, form.data.current, form.data.password);
 		} catch (error) {
 			clear();
-			if (error instanceof users.AccountError) return setError(form, 'current', error.message);
-			throw error;
+			return formFailure(error, form);
 		}
 		// The change ended every session, this one too: sign this one in again under the new password.
 		const signedIn = await signInWithPassword(event, locals.user!.email, form.data.password);

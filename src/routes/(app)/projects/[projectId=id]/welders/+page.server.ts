@@ -2,6 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { message, setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as welders from '$lib/server/welders';
+import { DomainError } from '$lib/server/errors';
 import { can } from '$lib/permissions';
 import {
 	welderFormSchema,
@@ -23,7 +24,7 @@ export const load = (async ({ locals }) => ({
 
 /** A refusal of the register (a stamp taken, a welder gone) shown on the form that asked. */
 function refused<T extends Record<string, unknown>>(form: SuperValidated<T>, error: unknown) {
-	if (!(error instanceof welders.WelderError)) throw error;
+	if (!(error instanceof DomainError)) throw error;
 	const text = error.message;
 	if (error.field && error.field in form.data) {
 		return setError(form, error.field as never, text, { status: error.status });
