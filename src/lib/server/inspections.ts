@@ -15,6 +15,8 @@ import {
 	evaluate,
 	getCriteriaSet,
 	isReadingId,
+	jointInputOf,
+	parseReading,
 	readingDefinitions,
 	type CriteriaSet,
 	type JointInput,
@@ -61,6 +63,18 @@ export function storedReadings(texts: ReadingTexts, units: UnitSystem): StoredRe
 		}
 		if (typeof raw === 'boolean') {
 			stored.push({ id, text: raw ? 'yes' : 'no', value: null, unit: null });
+			continue;
+		}
+		if (definition.kind === 'count' || definition.kind === 'roughness') {
+			// A count of pores, or a roughness in µm Ra, read as the engine reads it.
+			const read = parseReading(id, raw, units);
+			const text =
+				typeof raw === 'number' && definition.kind === 'roughness' ? `${raw} µm` : String(raw);
+			stored.push(
+				read.ok && typeof read.value === 'number'
+					? { id, text, value: read.value, unit: read.unit === 'count' ? 'count' : 'um' }
+					: { id, text, value: null, unit: null }
+			);
 			continue;
 		}
 		const angle = definition.kind === 'angle';
@@ -308,11 +322,7 @@ function projectUnits(tx: Tx, projectId: number): UnitSystem {
 }
 
 function jointInput(joint: Joint): JointInput {
-	return {
-		kind: joint.kind,
-		thickness: joint.thicknessMm ?? undefined,
-		requiredSize: joint.requiredSizeMm ?? undefined
-	};
+	return jointInputOf(joint);
 }
 
 /** What the record says of the verdict: the engine's, its findings, and the set it used. */

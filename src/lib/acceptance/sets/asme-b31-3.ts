@@ -92,13 +92,13 @@ const penetrationWords: Record<Column, string> = {
 const undercut: Record<Column, Limit> = {
 	normal: {
 		rule: { type: 'banded', max: longitudinal(0, criterionH) },
-		clause: `${TABLE}, undercutting, criterion H`,
+		clause: `${TABLE}, undercut, criterion H`,
 		confidence: '2+',
 		note: 'Girth, branch and fillet welds; longitudinal groove welds allow none (criterion A).'
 	},
 	'severe-cyclic': {
 		rule: { type: 'banded', max: 0 },
-		clause: `${TABLE}, undercutting, criterion A`,
+		clause: `${TABLE}, undercut, criterion A`,
 		confidence: '2+'
 	},
 	'category-d': {
@@ -110,7 +110,7 @@ const undercut: Record<Column, Limit> = {
 				otherwise: criterionH
 			}
 		},
-		clause: `${TABLE}, undercutting, criterion I (girth) / H (fillet, branch)`,
+		clause: `${TABLE}, undercut, criterion I (girth) / H (fillet, branch)`,
 		confidence: '2+',
 		note: 'Longitudinal groove welds allow none (criterion A).'
 	}
@@ -165,7 +165,7 @@ function limitsFor(column: Column): CriteriaSet['limits'] {
 		'rootFace.range': perWps('Root face as the WPS specifies.'),
 		'socket.gap': {
 			rule: { type: 'min', min: { in: 1 / 16, mm: 1.5 }, judgeAbove: 0 },
-			clause: 'Figs. 328.5.2B, 328.5.2C',
+			clause: 'Fig. 328.5.2C',
 			confidence: '2+',
 			note: 'Approximately 1.5 mm (1/16 in) gap before welding; a pipe bottomed in the socket (no gap) is rejected by common practice, a smaller gap is for the inspector.'
 		},

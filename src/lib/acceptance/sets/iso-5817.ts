@@ -218,7 +218,7 @@ function limitsFor(level: Level): CriteriaSet['limits'] {
 							max: byThinWall(0, undercutDepth),
 							band: { upTo: undercutDepth, length: { short: true } }
 						},
-			clause: 'Table 1, 5011 / 5012 (continuous and intermittent undercut)',
+			clause: 'Table 1, 5011 / 5012 (undercut)',
 			confidence: v.undercut.confidence,
 			note: `t > 3 mm: h ≤ ${v.undercut.factor}t, max ${v.undercut.cap} mm, with a smooth transition. t ≤ 3 mm: ${v.undercut.thin === 'none' ? 'not permitted' : `short imperfections only, h ≤ ${v.undercut.factor}t`}. ${SHORT}`
 		},
