@@ -14,10 +14,10 @@ describe('ruleWords', () => {
 	it('reads B31.3 normal undercut in the project column', () => {
 		const rule = set('asme-b31.3-normal').limits['undercut.depth']!.rule;
 		expect(ruleWords(rule, 'mm', 'imperial')).toBe(
-			'at most (0 in for longitudinal seams, otherwise (the lesser of 1/32 in and 0.25 × thickness)) at any length'
+			'at most (the lesser of 1/32 in and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 		expect(ruleWords(rule, 'mm', 'metric')).toBe(
-			'at most (0 mm for longitudinal seams, otherwise (the lesser of 1 mm and 0.25 × thickness)) at any length'
+			'at most (the lesser of 1 mm and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 	});
 
@@ -121,7 +121,7 @@ describe('lengths and typed values', () => {
 	it('read an accumulated length with the stretch it counts over', () => {
 		const rule = set('asme-b31.3-normal').limits['penetration.length']!.rule;
 		expect(ruleWords(rule, 'mm', 'metric')).toBe(
-			'at most (0 mm for longitudinal seams, otherwise 38 mm) in any 150 mm'
+			'at most (38 mm, none for longitudinal seams) in any 150 mm'
 		);
 	});
 });

@@ -139,6 +139,10 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 		);
 	}
 	if ('when' in expr) {
+		// "None for longitudinal seams" reads better after the rule than before it.
+		if (typeof expr.then === 'number' && expr.then === 0) {
+			return wrap(`${exprWords(expr.otherwise, words)}, none for ${conditionWords(expr.when)}`);
+		}
 		return wrap(
 			`${exprWords(expr.then, words, true)} for ${conditionWords(expr.when)}, otherwise ${exprWords(expr.otherwise, words, true)}`
 		);
