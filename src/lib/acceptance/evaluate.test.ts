@@ -351,6 +351,32 @@ describe('deriveCriteriaSet', () => {
 		expect(gap('3/32')).toMatchObject({ clause: 'PL-01 §4.2', confidence: 'project' });
 	});
 
+	// AWS D1.1:2020 7.21.1 [2+]: the leg grows with a root opening over 1/16 in; a project that
+	// tightens the rule keeps where it applies.
+	it('keeps where a changed check applies, and the criteria of its base for indications', () => {
+		const projectD11 = deriveCriteriaSet(d11, {
+			id: 'project-structural',
+			name: 'Structural spec ST-02',
+			overrides: {
+				'fillet.gapLeg': {
+					rule: { type: 'min', min: { of: 'requiredSize', times: 1, plus: 2 } },
+					clause: 'ST-02 §3.1'
+				}
+			}
+		});
+		expect(projectD11.limits['fillet.gapLeg']?.appliesOver).toEqual(
+			d11.limits['fillet.gapLeg']?.appliesOver
+		);
+		const joint: JointInput = { kind: 'fillet', requiredSize: '1/4 in', thickness: '1/2 in' };
+		const small = evaluated(projectD11, joint, 'visual', {
+			filletLeg1: '1/4',
+			filletLeg2: '1/4',
+			rootOpening: '1/32'
+		});
+		expect(small.findings.some((f) => f.check === 'fillet.gapLeg')).toBe(false);
+		expect(projectApi.volumetric).toBe(api.volumetric);
+	});
+
 	it('records its base, its version and what it changed', () => {
 		expect(projectApi).toMatchObject({
 			id: 'project-pipeline',
