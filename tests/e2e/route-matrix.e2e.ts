@@ -185,7 +185,11 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			revisionId: String(first.currentRevision.id),
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
-			exportId: String(exportId)
+			exportId: String(exportId),
+			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
+			page: '0',
+			level: '0',
+			tile: '0_0.webp'
 		};
 	}
 	await admin.dispose();

@@ -34,6 +34,7 @@ import {
 import type { ProjectRole } from '../../permissions';
 import type { CheckId, Finding } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
+import type { TileFormat, TileLevel, TileStatus } from '../../sheet-tiles';
 
 export type { ProjectRole };
 export {
@@ -295,6 +296,40 @@ export const pages = sqliteTable(
 		rotation: integer('rotation').$type<0 | 90 | 180 | 270>().notNull().default(0)
 	},
 	(t) => [uniqueIndex('pages_revision_index').on(t.revisionId, t.pageIndex)]
+);
+
+/**
+ * A sheet rendered once on the server into a pyramid of image tiles (stored under the
+ * revision, see src/lib/server/tiles.ts), so the viewer shows it at once. `raster`: the sheet
+ * is a scan (one big image), which the viewer shows from its tiles alone.
+ */
+export const sheetTiles = sqliteTable(
+	'sheet_tiles',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		revisionId: integer('revision_id')
+			.notNull()
+			.references(() => revisions.id, { onDelete: 'cascade' }),
+		pageIndex: integer('page_index').notNull(),
+		status: text('status').$type<TileStatus>().notNull().default('queued'),
+		raster: integer('raster', { mode: 'boolean' }).notNull().default(false),
+		format: text('format').$type<TileFormat>(),
+		tileSize: integer('tile_size').notNull().default(512),
+		/** The sheet in sheet units (PDF points × the page's UserUnit, rotation applied). */
+		width: real('width'),
+		height: real('height'),
+		levels: text('levels', { mode: 'json' }).$type<TileLevel[]>().notNull().default([]),
+		tiles: integer('tiles').notNull().default(0),
+		bytes: integer('bytes').notNull().default(0),
+		renderMs: integer('render_ms'),
+		error: text('error'),
+		queuedAt: integer('queued_at').notNull().default(now),
+		finishedAt: integer('finished_at')
+	},
+	(t) => [
+		uniqueIndex('sheet_tiles_revision_page').on(t.revisionId, t.pageIndex),
+		index('sheet_tiles_status').on(t.status)
+	]
 );
 
 // Joints and their records ------------------------------------------------------------
