@@ -71,12 +71,46 @@ function multiply(m, n) {
 }
 
 /**
- * Collects the page's line work from pdf.js's operator list, keeping its own transform stack
- * (form XObjects, `cm` inside and outside saved states).
+ * @typedef {{ fontMatrix?: number[], vertical?: boolean }} FontFacts
+ * @typedef {{
+ *   tm: number[], x: number, y: number, lineX: number, lineY: number,
+ *   charSpacing: number, wordSpacing: number, hScale: number, leading: number, rise: number,
+ *   font: FontFacts | null, fontName: string, size: number, direction: number
+ * }} TextState
+ */
+
+/**
+ * Collects the page's line work and text from pdf.js's operator list, keeping its own
+ * transform stack (form XObjects, `cm` inside and outside saved states) and text state, so
+ * every glyph lands where pdf.js's canvas would draw it. Text comes out as words split where
+ * the sheet leaves a space, measured from the glyphs' own advances: writers that place each
+ * glyph on its own (CAD exports, cairo) would otherwise read with spaces inside a number.
+ * `fontOf` gives a font's matrix and writing mode by its loaded name; a page with vertical
+ * text gets `texts: null` (read it from pdf.js's text content instead).
  * @param {{ fnArray: number[], argsArray: any[] }} list
  * @param {any} OPS
+ * @param {(name: string) => FontFacts | null} [fontOf]
  */
-export function collectLineWork(list, OPS) {
+export function collectLineWork(list, OPS, fontOf = () => null) {
+	/** @type {SheetText[] | null} */
+	let texts = [];
+	/** @type {TextState} */
+	let text = {
+		tm: [1, 0, 0, 1, 0, 0],
+		x: 0,
+		y: 0,
+		lineX: 0,
+		lineY: 0,
+		charSpacing: 0,
+		wordSpacing: 0,
+		hScale: 1,
+		leading: 0,
+		rise: 0,
+		font: null,
+		fontName: '',
+		size: 0,
+		direction: 1
+	};
 	/** @type {SheetShape[]} */
 	const shapes = [];
 	/** @type {number[]} */
@@ -86,7 +120,7 @@ export function collectLineWork(list, OPS) {
 	let truncated = false;
 	let ctm = [1, 0, 0, 1, 0, 0];
 	let darkFill = true;
-	/** @type {{ ctm: number[], darkFill: boolean }[]} */
+	/** @type {{ ctm: number[], darkFill: boolean, text: TextState }[]} */
 	const stack = [];
 	const strokes = new Set([OPS.stroke, OPS.closeStroke, OPS.fillStroke, OPS.eoFillStroke]);
 	strokes.add(OPS.closeFillStroke).add(OPS.closeEOFillStroke);
@@ -188,17 +222,18 @@ export function collectLineWork(list, OPS) {
 			return;
 		}
 		if (stroke) addSegments(pts, false);
-		// Exploded outlines (one short piece per path, as some CAD exports write circles).
-		if (
-			chain &&
-			chain.fill === fill &&
-			chain.stroke === stroke &&
-			Math.hypot(
-				chain.pts[chain.pts.length - 2] - pts[0],
-				chain.pts[chain.pts.length - 1] - pts[1]
-			) < 0.05
-		) {
-			for (let i = 2; i < pts.length; i++) chain.pts.push(pts[i]);
+		// Exploded outlines (one short piece per path, as some CAD exports write circles; a
+		// rewriting tool may turn some pieces round).
+		const n2 = pts.length;
+		const joins = (/** @type {number} */ x, /** @type {number} */ y) =>
+			chain !== null &&
+			Math.hypot(chain.pts[chain.pts.length - 2] - x, chain.pts[chain.pts.length - 1] - y) < 0.1;
+		const same = chain !== null && chain.fill === fill && chain.stroke === stroke;
+		const forward = same && joins(pts[0], pts[1]);
+		const backward = same && !forward && joins(pts[n2 - 2], pts[n2 - 1]);
+		if (chain && (forward || backward)) {
+			const piece = forward ? pts : reversed(pts);
+			for (let i = 2; i < piece.length; i++) chain.pts.push(piece[i]);
 			chain.curves += sub.curves;
 			chain.corners += sub.corners;
 			if (chain.pts.length > 4000) chain = null;
@@ -214,6 +249,13 @@ export function collectLineWork(list, OPS) {
 			};
 		}
 	};
+
+	/** @param {number[]} pts */
+	function reversed(pts) {
+		const out = [];
+		for (let i = pts.length - 2; i >= 0; i -= 2) out.push(pts[i], pts[i + 1]);
+		return out;
+	}
 
 	/**
 	 * The two ends of a sliver's long axis.
@@ -236,7 +278,7 @@ export function collectLineWork(list, OPS) {
 		if (pts.length !== 8) return false;
 		const a = Math.hypot(pts[2] - pts[0], pts[3] - pts[1]);
 		const b = Math.hypot(pts[4] - pts[2], pts[5] - pts[3]);
-		return Math.min(a, b) < 1.5 && Math.max(a, b) > 4 * Math.min(a, b);
+		return Math.min(a, b) < 1.5 && Math.max(a, b) > 1.8 * Math.min(a, b);
 	}
 
 	/**
@@ -327,13 +369,63 @@ export function collectLineWork(list, OPS) {
 		const args = argsArray[i];
 		switch (fn) {
 			case OPS.save:
-				stack.push({ ctm, darkFill });
+				stack.push({ ctm, darkFill, text: { ...text } });
 				break;
 			case OPS.restore: {
 				const saved = stack.pop();
-				if (saved) ({ ctm, darkFill } = saved);
+				if (saved) ({ ctm, darkFill, text } = saved);
 				break;
 			}
+			case OPS.beginText:
+				text.tm = [1, 0, 0, 1, 0, 0];
+				text.x = text.lineX = text.y = text.lineY = 0;
+				break;
+			case OPS.setTextMatrix:
+				text.tm = Array.from(
+					Array.isArray(args[0]) || ArrayBuffer.isView(args[0]) ? args[0] : args
+				);
+				text.x = text.lineX = text.y = text.lineY = 0;
+				break;
+			case OPS.moveText:
+				text.x = text.lineX += args[0];
+				text.y = text.lineY += args[1];
+				break;
+			case OPS.setLeadingMoveText:
+				text.leading = args[1];
+				text.x = text.lineX += args[0];
+				text.y = text.lineY += args[1];
+				break;
+			case OPS.nextLine:
+				text.x = text.lineX;
+				text.y = text.lineY += text.leading;
+				break;
+			case OPS.setLeading:
+				text.leading = -args[0];
+				break;
+			case OPS.setCharSpacing:
+				text.charSpacing = args[0];
+				break;
+			case OPS.setWordSpacing:
+				text.wordSpacing = args[0];
+				break;
+			case OPS.setHScale:
+				text.hScale = args[0] / 100;
+				break;
+			case OPS.setTextRise:
+				text.rise = args[0];
+				break;
+			case OPS.setFont: {
+				const font = fontOf(args[0]);
+				text.font = font;
+				text.fontName = args[0];
+				text.direction = args[1] < 0 ? -1 : 1;
+				text.size = Math.abs(args[1]);
+				if (font?.vertical) texts = null;
+				break;
+			}
+			case OPS.showText:
+				if (texts && text.font && Array.isArray(args[0])) showText(args[0]);
+				break;
 			case OPS.setFillRGBColor: {
 				const n = typeof args?.[0] === 'string' ? Number.parseInt(args[0].slice(1), 16) : 0;
 				darkFill = 0.299 * ((n >> 16) & 255) + 0.587 * ((n >> 8) & 255) + 0.114 * (n & 255) < 110;
@@ -343,13 +435,13 @@ export function collectLineWork(list, OPS) {
 				ctm = multiply(ctm, args);
 				break;
 			case OPS.paintFormXObjectBegin:
-				stack.push({ ctm, darkFill });
+				stack.push({ ctm, darkFill, text: { ...text } });
 				if (Array.isArray(args?.[0]) || ArrayBuffer.isView(args?.[0]))
 					ctm = multiply(ctm, Array.from(args[0]));
 				break;
 			case OPS.paintFormXObjectEnd: {
 				const saved = stack.pop();
-				if (saved) ({ ctm, darkFill } = saved);
+				if (saved) ({ ctm, darkFill, text } = saved);
 				break;
 			}
 			case OPS.constructPath: {
@@ -370,7 +462,74 @@ export function collectLineWork(list, OPS) {
 		}
 	}
 	flushChain();
-	return { shapes, segments, images, truncated };
+	return { shapes, segments, images, truncated, texts };
+
+	/**
+	 * Places a run of glyphs as canvas.js's showText does, and cuts it into words at spaces
+	 * and at gaps wider than a fifth of the size.
+	 * @param {any[]} glyphs
+	 */
+	function showText(glyphs) {
+		const font = /** @type {FontFacts} */ (text.font);
+		const size = text.size;
+		const hScale = text.hScale * text.direction;
+		const advanceScale = size * (font.fontMatrix?.[0] ?? 0.001);
+		const m = multiply(ctm, text.tm);
+		// Baseline direction and glyph height in user space, per unit of text space.
+		const along = [m[0], m[1]];
+		const upward = [m[2] * size, m[3] * size];
+		const height = Math.hypot(upward[0], upward[1]);
+		const scaleAlong = Math.hypot(along[0], along[1]);
+		if (!height || !scaleAlong) return;
+		const at = (/** @type {number} */ tx) => [
+			m[0] * tx + m[2] * (text.y + text.rise) + m[4],
+			m[1] * tx + m[3] * (text.y + text.rise) + m[5]
+		];
+		/** @type {{ chars: string, start: number, end: number } | null} */
+		let word = null;
+		const flush = () => {
+			if (!word || !texts) return (word = null);
+			const o = at(word.start);
+			const e = at(word.end);
+			const length = Math.hypot(e[0] - o[0], e[1] - o[1]);
+			const ux = length > 1e-9 ? (e[0] - o[0]) / length : along[0] / Math.hypot(...along);
+			const uy = length > 1e-9 ? (e[1] - o[1]) / length : along[1] / Math.hypot(...along);
+			texts.push({
+				s: word.chars,
+				m: [ux * height, uy * height, upward[0], upward[1], o[0], o[1]],
+				w: length,
+				h: height,
+				font: text.fontName
+			});
+			word = null;
+		};
+		let x = 0;
+		for (const g of glyphs) {
+			if (typeof g === 'number') {
+				x -= (g * size) / 1000;
+				continue;
+			}
+			const spacing = (g.isSpace ? text.wordSpacing : 0) + text.charSpacing;
+			const advance = (g.width ?? 0) * advanceScale + spacing * text.direction;
+			const start = text.x + x * hScale;
+			const end = text.x + (x + (g.width ?? 0) * advanceScale) * hScale;
+			const ch = String(g.unicode ?? '').normalize('NFKC');
+			const blank = g.isSpace || !ch.trim();
+			if (blank) flush();
+			else {
+				// A gap wider than a fifth of the size between glyphs starts a new word.
+				const gap = word ? ((start - word.end) * scaleAlong) / height : 0;
+				if (word && (gap > 0.2 || gap < -0.5)) flush();
+				if (word) {
+					word.chars += ch;
+					word.end = end;
+				} else word = { chars: ch, start, end };
+			}
+			x += advance;
+		}
+		flush();
+		text.x += x * hScale;
+	}
 }
 
 /**
@@ -426,19 +585,29 @@ export async function readSheets(data, onPage) {
 		for (let n = 1; n <= pdf.numPages; n++) {
 			const page = await pdf.getPage(n);
 			const list = await page.getOperatorList({ annotationMode: AnnotationMode.DISABLE });
-			const work = collectLineWork(list, OPS);
-			const content = await page.getTextContent({ disableNormalization: false });
-			/** @type {SheetText[]} */
-			const texts = [];
-			for (const item of content.items) {
-				if (!('str' in item) || !item.str.trim()) continue;
-				texts.push({
-					s: item.str,
-					m: item.transform.slice(0, 6),
-					w: item.width,
-					h: item.height,
-					font: item.fontName
-				});
+			const work = collectLineWork(list, OPS, (name) => {
+				try {
+					const font = page.commonObjs.get(name);
+					return { fontMatrix: font.fontMatrix, vertical: font.vertical };
+				} catch {
+					return null;
+				}
+			});
+			let texts = work.texts;
+			if (!texts) {
+				// Vertical writing: pdf.js's own text content places it.
+				texts = [];
+				const content = await page.getTextContent({ disableNormalization: false });
+				for (const item of content.items) {
+					if (!('str' in item) || !item.str.trim()) continue;
+					texts.push({
+						s: item.str,
+						m: item.transform.slice(0, 6),
+						w: item.width,
+						h: item.height,
+						font: item.fontName
+					});
+				}
 			}
 			await onPage({
 				pageIndex: n - 1,
