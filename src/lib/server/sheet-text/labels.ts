@@ -568,7 +568,24 @@ export type Rejection =
 	| 'no evidence'
 	| 'repeated';
 
-function judge(page: Page, c: Candidate, trace?: Trace): PageLabel | null {
+/**
+ * A bubble holding the number and other words: read together top to bottom they may be one
+ * weld number (a prefix set over the digits, "FW" above "12"); anything else shares it.
+ */
+function readTogether(page: Page, c: Candidate, others: Word[]): Candidate | null {
+	const w = c.word;
+	const ordered = [...others, w].sort((a, b) => {
+		const rise = dot(sub(b.centre, a.centre), w.up);
+		if (Math.abs(rise) > 0.5 * w.size) return rise;
+		return dot(sub(a.centre, b.centre), w.u);
+	});
+	const read = readWeldLabel(ordered.map((o) => o.text).join(' '), page.rule);
+	if (!read || read.number === c.number) return null;
+	return { ...c, parts: ordered, number: read.number, location: read.location, prefixed: true };
+}
+
+function judge(page: Page, candidate: Candidate, trace?: Trace): PageLabel | null {
+	let c = candidate;
 	const w = c.word;
 	const reject = (why: Rejection) => {
 		trace?.(c.number, w.centre, why);
@@ -577,7 +594,11 @@ function judge(page: Page, c: Candidate, trace?: Trace): PageLabel | null {
 	const bubble = enclosingOutline(page, c);
 	if (bubble) {
 		if (bubble.outline.kind === 'triangle') return reject('revision triangle');
-		if (bubble.others.length > 0) return reject('shared outline');
+		if (bubble.others.length > 0) {
+			const together = readTogether(page, c, bubble.others);
+			if (!together) return reject('shared outline');
+			c = together;
+		}
 		if (captioned(page, w, bubble.outline)) return reject('key');
 	} else {
 		// Running text: a word beside it on its line that is not itself a weld number.
