@@ -278,7 +278,7 @@ export function collectLineWork(list, OPS, fontOf = () => null) {
 		if (pts.length !== 8) return false;
 		const a = Math.hypot(pts[2] - pts[0], pts[3] - pts[1]);
 		const b = Math.hypot(pts[4] - pts[2], pts[5] - pts[3]);
-		return Math.min(a, b) < 1.5 && Math.max(a, b) > 1.8 * Math.min(a, b);
+		return Math.min(a, b) < 1.5 && Math.max(a, b) > 1.2 * Math.min(a, b);
 	}
 
 	/**

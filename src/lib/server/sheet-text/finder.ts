@@ -18,7 +18,7 @@
  * The weld-label judgement is labels.ts; what counts as a weld number is the project's rule.
  */
 import type { WeldLabelRule } from '$lib/weld-labels';
-import { findPageLabels, type Evidence, type PageLabel } from './labels';
+import { findPageLabelsPaced, type Evidence, type PageLabel } from './labels';
 import { readSheetGeometry } from './reader';
 
 export interface SuggestedLabel {
@@ -56,7 +56,7 @@ export async function findWeldNumbers(
 ): Promise<SheetSuggestions> {
 	const pages: SheetPageFacts[] = [];
 	const best = new Map<string, PageLabel & { pageIndex: number }>();
-	await readSheetGeometry(bytes, (geometry) => {
+	await readSheetGeometry(bytes, async (geometry) => {
 		pages.push({
 			pageIndex: geometry.pageIndex,
 			textLayer: geometry.texts.length > 0,
@@ -64,7 +64,7 @@ export async function findWeldNumbers(
 			rotation: geometry.rotate,
 			truncated: geometry.truncated
 		});
-		for (const label of findPageLabels(geometry, rule)) {
+		for (const label of await findPageLabelsPaced(geometry, rule)) {
 			const key = label.number.toUpperCase();
 			const held = best.get(key);
 			if (!held || label.score > held.score)

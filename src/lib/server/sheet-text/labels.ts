@@ -258,7 +258,7 @@ type Ruled = 'table' | 'column' | 'box' | null;
  * How rules sit around a box: a table cell (ruled on four sides, with a rule running on into
  * a neighbouring cell), a column (long rules left and right only), a lone box, or nothing.
  */
-function ruledAround(page: Page, box: Box, size: number): Ruled {
+function ruledAround(page: Page, box: Box, size: number, own: Word[]): Ruled {
 	const up = nearestRule(page, box, 'up', 2.4 * size);
 	const down = nearestRule(page, box, 'down', 2.4 * size);
 	const left = nearestRule(page, box, 'left', 18 * size);
@@ -284,7 +284,13 @@ function ruledAround(page: Page, box: Box, size: number): Ruled {
 				coversVertically(page, left, down - step) ||
 				coversVertically(page, right, up + step) ||
 				coversVertically(page, right, down - step);
-			return runsOn ? 'table' : 'box';
+			// A table has words in the cells beside or above and below; members of a steel
+			// drawing make ruled boxes too, but empty ones.
+			// Table rows are about two text heights: a taller box is a part of the drawing.
+			const tight = up - down <= 3.2 * size;
+			const filled =
+				runsOn && tight && neighbourCellsHoldText(page, { left, right, down, up }, size, own);
+			return filled ? 'table' : 'box';
 		}
 		const tall = 2.5 * size;
 		const cy = (box.y0 + box.y1) / 2;
@@ -297,6 +303,30 @@ function ruledAround(page: Page, box: Box, size: number): Ruled {
 			return 'column';
 	}
 	return null;
+}
+
+/** Words in the same row (left or right of the cell) or column (above or below it). */
+function neighbourCellsHoldText(
+	page: Page,
+	cell: { left: number; right: number; down: number; up: number },
+	size: number,
+	own: Word[]
+): boolean {
+	const across = 40 * size;
+	const along = 8 * size;
+	for (const o of page.wordGrid.query({
+		x0: cell.left - across,
+		y0: cell.down - along,
+		x1: cell.right + across,
+		y1: cell.up + along
+	})) {
+		if (own.includes(o)) continue;
+		const [x, y] = o.centre;
+		const inRow = y > cell.down && y < cell.up && (x < cell.left || x > cell.right);
+		const inColumn = x > cell.left && x < cell.right && (y < cell.down || y > cell.up);
+		if (inRow || inColumn) return true;
+	}
+	return false;
 }
 
 /** An alike word one row above (`sign` 1) or below (-1): same size and turn, aligned, 1–3 sizes away. */
@@ -433,6 +463,22 @@ function darkDotNear(page: Page, p: Pt, reach: number, maxSize: number): Outline
 	return best;
 }
 
+/** A small dark shape with corners (a flag, an arrowhead) touching a point. */
+function pennantAt(page: Page, p: Pt, size: number): boolean {
+	const reach = 1.5;
+	return page.shapes.outlineGrid
+		.query({ x0: p[0] - reach, y0: p[1] - reach, x1: p[0] + reach, y1: p[1] + reach })
+		.some(
+			(o) =>
+				o.dark &&
+				o.kind !== 'round' &&
+				Math.max(o.box.x1 - o.box.x0, o.box.y1 - o.box.y0) > 0.4 * size &&
+				o.box.x1 - o.box.x0 < 2 * size &&
+				o.box.y1 - o.box.y0 < 2 * size &&
+				(polygonContains(o.pts, p) || polygonOutlineDistance(o.pts, p) <= reach)
+		);
+}
+
 interface Leader {
 	/** Where the leader ends, away from the label. */
 	end: Pt;
@@ -463,6 +509,9 @@ function leaderFrom(
 		const out = sub(far, near);
 		const from = sub(near, w.centre);
 		if (dot(out, from) < 0.2 * Math.hypot(...out) * Math.hypot(...from)) continue;
+		// A flag or an arrowhead at the label's end makes it a field-weld flag's pole or an
+		// arrow pointing at the label's neighbourhood, not this label's leader.
+		if (pennantAt(page, near, w.size)) continue;
 		// A line through the number (a pipe under the text) is not its leader.
 		if (pointSegmentDistance(w.centre, l.a, l.b) < 0.3 * w.size) continue;
 		// A leader stops a little short of its weld: how short grows with the print size.
@@ -607,10 +656,9 @@ function judge(page: Page, candidate: Candidate, trace?: Trace): PageLabel | nul
 			return reject('running text');
 	}
 	const region = bubble ? bubble.outline.box : wordBox(w, 0.1 * w.size);
-	const ruled = ruledAround(page, region, w.size);
+	const ruled = ruledAround(page, region, w.size, c.parts);
 	if (ruled === 'table') return reject('table');
 	const stacked = stackedWith(page, w);
-	if (stacked >= 2) return reject('column');
 	// The same figure just above or below: the two sides of a weld symbol, never a weld number
 	// (a weld number is printed once).
 	for (const sign of [1, -1] as const) {
@@ -691,7 +739,10 @@ function judge(page: Page, candidate: Candidate, trace?: Trace): PageLabel | nul
 	// A weld dot, a tick or a leader to the pipe outweighs a line beside it or a neighbour above.
 	const pointsAtWeld =
 		(leader?.anchored ?? false) || evidence.includes('dot') || evidence.includes('tick');
-	if (!pointsAtWeld && stacked >= 1 && ruled === 'column') return reject('column');
+	// A column of alike figures is a table's, unless each points at its own weld (welds
+	// evenly spaced along a member are labelled in a column too).
+	if (!pointsAtWeld && (stacked >= 2 || (stacked >= 1 && ruled === 'column')))
+		return reject('column');
 	// Beside a dimension line only a leader to the weld tells a label from the dimension's figure.
 	if (dimension === 'beside' && !leader?.anchored) return reject('dimension');
 
@@ -740,18 +791,51 @@ export function findPageLabels(
 	rule: WeldLabelRule,
 	trace?: Trace
 ): PageLabel[] {
+	const steps = labelsOf(geometry, rule, trace);
+	for (;;) {
+		const step = steps.next();
+		if (step.done) return step.value;
+	}
+}
+
+/**
+ * The same, handing the event loop back whenever `budgetMs` of work has gone by, so a dense
+ * sheet never keeps the server from answering.
+ */
+export async function findPageLabelsPaced(
+	geometry: SheetGeometry,
+	rule: WeldLabelRule,
+	budgetMs = 8
+): Promise<PageLabel[]> {
+	const steps = labelsOf(geometry, rule);
+	let since = performance.now();
+	for (;;) {
+		const step = steps.next();
+		if (step.done) return step.value;
+		if (performance.now() - since > budgetMs) {
+			await new Promise<void>((resolve) => setImmediate(resolve));
+			since = performance.now();
+		}
+	}
+}
+
+/** The work of findPageLabels, in steps: it pauses after each part and each candidate. */
+function* labelsOf(
+	geometry: SheetGeometry,
+	rule: WeldLabelRule,
+	trace?: Trace
+): Generator<void, PageLabel[]> {
 	const words = wordsOf(geometry.texts);
+	yield;
 	const wordGrid = new Grid<Word>(24);
 	for (const w of words) wordGrid.insert(w, wordBox(w));
-	const page: Page = {
-		words,
-		wordGrid,
-		shapes: pageShapes(geometry.shapes, geometry.segments),
-		rule
-	};
+	const shapes = pageShapes(geometry.shapes, geometry.segments);
+	yield;
+	const page: Page = { words, wordGrid, shapes, rule };
 	const found = new Map<string, PageLabel[]>();
 	for (const c of candidatesOf(page)) {
 		const label = judge(page, c, trace);
+		yield;
 		if (!label) continue;
 		const key = label.number.toUpperCase();
 		const list = found.get(key);

@@ -126,7 +126,7 @@ function translate(name: string, message: string): Error {
 /** Runs one job on the worker, after any job before it. */
 function run<T>(
 	post: (w: Worker, id: number) => void,
-	onMessage: (message: Message, w: Worker) => T | undefined,
+	onMessage: (message: Message, w: Worker, fail: (error: unknown) => void) => T | undefined,
 	timeoutMs: number
 ): Promise<T> {
 	const job = queue.then(
@@ -166,18 +166,21 @@ function run<T>(
 							reject(translate(message.name, message.message));
 							return;
 						}
+						// The worker waits for a page to be taken: after a failure, start afresh.
+						const fail = (error: unknown) => {
+							finish();
+							if (worker === w) worker = null;
+							void w.terminate();
+							reject(error);
+						};
 						try {
-							const result = onMessage(message, w);
+							const result = onMessage(message, w, fail);
 							if (message.kind === 'done') {
 								finish();
 								resolve(result as T);
 							}
 						} catch (error) {
-							// The worker waits for a page to be taken: start afresh next time.
-							finish();
-							if (worker === w) worker = null;
-							void w.terminate();
-							reject(error);
+							fail(error);
 						}
 					}
 				};
@@ -193,12 +196,13 @@ function copyOf(bytes: Uint8Array): ArrayBuffer {
 }
 
 /**
- * Reads every page of a PDF; `onPage` gets each page's geometry in page order. Resolves with
- * the page count. Rejects with a SheetReadError for a file that cannot be read.
+ * Reads every page of a PDF; `onPage` gets each page's geometry in page order, and the next
+ * page is read once it has returned (or its promise settled). Resolves with the page count.
+ * Rejects with a SheetReadError for a file that cannot be read, or with onPage's error.
  */
 export function readSheetGeometry(
 	bytes: Uint8Array,
-	onPage: (page: SheetGeometry) => void,
+	onPage: (page: SheetGeometry) => void | Promise<void>,
 	{ timeoutMs = 120_000 }: { timeoutMs?: number } = {}
 ): Promise<number> {
 	return run<number>(
@@ -206,10 +210,12 @@ export function readSheetGeometry(
 			const data = copyOf(bytes);
 			w.postMessage({ id, kind: 'read', data }, [data]);
 		},
-		(message, w) => {
+		(message, w, fail) => {
 			if (message.kind === 'page') {
-				onPage(message.page);
-				w.postMessage({ id: message.id, kind: 'next' });
+				Promise.resolve(onPage(message.page)).then(
+					() => w.postMessage({ id: message.id, kind: 'next' }),
+					fail
+				);
 				return undefined;
 			}
 			return message.kind === 'done' ? (message.pageCount ?? 0) : undefined;
