@@ -21,7 +21,7 @@ import archiver from 'archiver';
 import { eq } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as storage from '../storage';
-import * as joints from '../joints';
+import * as pins from '../pins';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
 import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
@@ -117,8 +117,8 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		},
 		drawings,
 		pinsOf: (revisionId) =>
-			joints
-				.pinsOf(revisionId)
+			pins
+				.ofRevision(revisionId)
 				.filter((pin) => !job.request.acceptedOnly || pin.state === 'accepted')
 				.map((pin) => ({
 					pageIndex: pin.pageIndex,
