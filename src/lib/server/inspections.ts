@@ -17,6 +17,7 @@ import { lockedJoint, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
 	getCriteriaSet,
+	jointInputOf,
 	type CriteriaSet,
 	type JointInput,
 	type ReadingsInput,
@@ -135,11 +136,7 @@ function recordsOf(tx: Tx, jointId: number) {
 }
 
 function jointInput(joint: Joint): JointInput {
-	return {
-		kind: joint.kind,
-		thickness: joint.thicknessMm ?? undefined,
-		requiredSize: joint.requiredSizeMm ?? undefined
-	};
+	return jointInputOf(joint);
 }
 
 /** What the record says of the verdict: the engine's, its findings, and the set it used. */

@@ -57,7 +57,8 @@ export interface StoredReading {
 	id: string;
 	text: string;
 	value: number | boolean | null;
-	unit: 'mm' | 'deg' | 'bool' | null;
+	/** mm, degrees, yes/no, a count of pores, or µm Ra; null where the text could not be read */
+	unit: 'mm' | 'deg' | 'bool' | 'count' | 'um' | null;
 }
 
 /** One check of a verdict, exactly as the acceptance engine reported it. */
