@@ -187,7 +187,9 @@ describe('a turnover set of the demo project', () => {
 		expect(pdf.numPages).toBe(covers + sheets);
 		// The line work of every page, to find the leaders of stamps moved off their pins.
 		const lines = new Map<number, number[]>();
-		await readSheetGeometry(bytes, (page) => lines.set(page.pageIndex, page.segments));
+		await readSheetGeometry(bytes, (page) => {
+			lines.set(page.pageIndex, page.segments);
+		});
 		const scratch = await PDFDocument.create();
 		scratch.registerFontkit(fontkit);
 		const fonts = await embedFonts(scratch);
