@@ -2,7 +2,7 @@
 // drawing generator with other seeds, so they carry the content of real-looking isometrics,
 // spool and structural sheets on ANSI B, A3 and A1 paper.
 import { monitorEventLoopDelay } from 'node:perf_hooks';
-import { DEMO_PROJECTS } from '$lib/server/demo/scenario';
+import { DEMO_PROJECTS, demoSheetSpec } from '$lib/server/demo/scenario';
 import { renderDemoSheet, type DemoSheet } from '$lib/server/demo/sheets';
 import { findWeldNumbers } from '$lib/server/sheet-text/finder';
 
@@ -25,21 +25,8 @@ async function drawings(): Promise<DemoSheet[]> {
 		const { project, drawing, revision } = specs[i % specs.length];
 		out.push(
 			await renderDemoSheet({
-				...revision,
-				seed: revision.seed + 1000 * (i + 1),
-				kind: drawing.kind,
-				number: `${drawing.number}-B${i}`,
-				title: drawing.title,
-				area: drawing.area,
-				system: drawing.system,
-				units: project.units,
-				party: {
-					owner: project.client,
-					contractor: project.contractor,
-					plant: project.site,
-					projectCode: project.code,
-					projectName: project.name
-				}
+				...demoSheetSpec(project, drawing, revision, revision.seed + 1000 * (i + 1)),
+				number: `${drawing.number}-B${i}`
 			})
 		);
 	}

@@ -10,7 +10,7 @@ import { PDFDocument } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
 import { findWeldNumbers } from '$lib/server/sheet-text/finder';
 import { SheetReadError } from '$lib/server/sheet-text/reader';
-import { DEMO_PROJECTS } from '$lib/server/demo/scenario';
+import { DEMO_PROJECTS, demoSheetSpec } from '$lib/server/demo/scenario';
 import { renderDemoSheet } from '$lib/server/demo/sheets';
 import {
 	FAMILIES,
@@ -97,23 +97,7 @@ describe('weld numbers found on the demo job’s drawings', () => {
 	it('finds the demo generator’s own weld list on every demo sheet, and on the same drawings from other seeds', async () => {
 		const t = emptyTally();
 		for (const { project, drawing, revision, seed } of demoSpecs(30)) {
-			const sheet = await renderDemoSheet({
-				...revision,
-				seed,
-				kind: drawing.kind,
-				number: drawing.number,
-				title: drawing.title,
-				area: drawing.area,
-				system: drawing.system,
-				units: project.units,
-				party: {
-					owner: project.client,
-					contractor: project.contractor,
-					plant: project.site,
-					projectCode: project.code,
-					projectName: project.name
-				}
-			});
+			const sheet = await renderDemoSheet(demoSheetSpec(project, drawing, revision, seed));
 			const found = await findWeldNumbers(sheet.bytes, DEMO_RULE);
 			// The demo reports each weld at its dot; its number stands 13 pt away in a bubble.
 			tally(sheet.welds, found.items, GOAL.withinPt, t);
