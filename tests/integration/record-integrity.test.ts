@@ -4,6 +4,8 @@
  * takes its version; the news of a change goes out after it is committed.
  */
 import { PassThrough } from 'node:stream';
+import ExcelJS from 'exceljs';
+import { correctionsOf, effectiveInspections } from '$lib/joint-state';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db } from '$lib/server/db';
 import * as joints from '$lib/server/joints';
@@ -21,6 +23,8 @@ import { newDrawingSchema } from '$lib/schemas/drawing';
 import { qualificationSchema, welderSchema } from '$lib/schemas/outstanding';
 import * as pins from '$lib/server/pins';
 import * as welders from '$lib/server/welders';
+import * as welds from '$lib/server/welds';
+import { qualifiedWelder } from '../fixtures/welders';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
 import { makeProject, type MadeProject } from '../fixtures/projects';
 import { readCsv } from '../fixtures/csv';
@@ -107,6 +111,35 @@ describe('which inspection stands, everywhere', () => {
 		expect(line[header.indexOf('Fit-up')]).toMatch(/^accept/i);
 		expect(line[header.indexOf('State')]).toMatch(/ready to weld/i);
 
+		// The workbook, read back with exceljs, says the same.
+		const book = new PassThrough();
+		const parts: Buffer[] = [];
+		book.on('data', (chunk: Buffer) => parts.push(chunk));
+		await weldLog.writeXlsx(
+			weldLog.iterate(projectId, weldLogQuery.parse(filled({ drawing: String(drawingId) }))),
+			book
+		);
+		const workbook = new ExcelJS.Workbook();
+		await workbook.xlsx.load(Buffer.concat(parts) as unknown as ArrayBuffer);
+		const sheet = workbook.getWorksheet('Weld log')!;
+		const headers = (sheet.getRow(1).values as unknown[]).map(String);
+		let cells: unknown[] = [];
+		sheet.eachRow((r) => {
+			const values = r.values as unknown[];
+			if (values[headers.indexOf('Weld no.')] === 'STD1') cells = values;
+		});
+		expect(String(cells[headers.indexOf('Fit-up')])).toMatch(/^accept/i);
+		expect(String(cells[headers.indexOf('State')])).toMatch(/ready to weld/i);
+
+		// The card's history marks the first fit-up corrected and the correction as standing.
+		const history = joints.detail(joint.id)!.inspections;
+		const standing = effectiveInspections(history);
+		expect(standing.map((i) => i.id)).not.toContain(first.inspection.id);
+		expect(standing.map((i) => i.id)).toContain(correction.inspection.id);
+		// The correction takes the first fit-up's place: the re-fit after it is the fit-up that stands.
+		expect(standing.map((i) => i.decision)).toEqual(['reject', 'accept']);
+		expect(correctionsOf(history).get(first.inspection.id)?.id).toBe(correction.inspection.id);
+
 		const scope = [{ id: drawingId, number: job.drawing.number }] as ScopeDrawing[];
 		const records = readCsv(
 			inspectionsCsv(exportRequestSchema.parse({ scope: { drawings: [drawingId] } }), scope)
@@ -158,6 +191,73 @@ describe('every write that changes a joint takes its version', () => {
 		expect(answer.status).toBe(400);
 		expect(answer.body.field).toBe('version');
 		expect(inspections.list(joint.id)).toHaveLength(0);
+	});
+});
+
+describe('a stale version changes nothing, whatever the write', () => {
+	// Each write that changes a joint is refused with 409 on `version` when another write landed
+	// since the client read it (common practice for optimistic locking), and nothing is stored.
+	function staleAfterAnotherWrite(number: string) {
+		const joint = newJoint(number);
+		const seen = joint.version;
+		joints.update(joint.id, { spool: 'SP-1', version: seen }, inspectorId);
+		return { joint, seen };
+	}
+
+	function expectStale(write: () => unknown, jointId: number) {
+		const before = joints.row(jointId)!;
+		let failure: unknown;
+		try {
+			write();
+		} catch (error) {
+			failure = error;
+		}
+		expect(failure).toMatchObject({ status: 409, field: 'version' });
+		expect(joints.row(jointId)).toEqual(before);
+	}
+
+	it('a weld recorded against an old version', () => {
+		const { joint, seen } = staleAfterAnotherWrite('STL1');
+		const stamp = qualifiedWelder(projectId);
+		fitup(joint.id, 'accept');
+		expectStale(
+			() =>
+				welds.record(
+					joint.id,
+					recordWeldSchema.parse({
+						version: seen,
+						weldedOn: '2025-06-02',
+						welders: { root: stamp }
+					}),
+					users.principal(job.users.foreman)!
+				),
+			joint.id
+		);
+		expect(welds.list(joint.id)).toHaveLength(0);
+	});
+
+	it('joint fields changed against an old version', () => {
+		const { joint, seen } = staleAfterAnotherWrite('STL2');
+		expectStale(
+			() => joints.update(joint.id, { line: 'L-9', version: seen }, inspectorId),
+			joint.id
+		);
+		expect(joints.row(joint.id)!.line).not.toBe('L-9');
+	});
+
+	it('a joint voided against an old version', () => {
+		const { joint, seen } = staleAfterAnotherWrite('STL3');
+		expectStale(
+			() => joints.voidJoint(joint.id, 'Deleted from the drawing by revision B', seen, inspectorId),
+			joint.id
+		);
+		expect(joints.row(joint.id)!.voidedAt).toBeNull();
+	});
+
+	it('a pin confirmed against an old version', () => {
+		const { joint, seen } = staleAfterAnotherWrite('STL4');
+		const pin = pins.ofRevision(revisionId).find((p) => p.jointId === joint.id)!;
+		expectStale(() => pins.confirm(pin.pinId, seen, inspectorId), joint.id);
 	});
 });
 
