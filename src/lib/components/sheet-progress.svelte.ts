@@ -3,6 +3,7 @@
  * project's events (or polling while they are down): "Preparing sheets 3/12".
  */
 import type { PreparingRevision, TileProgress } from '$lib/sheet-tiles';
+import { callApi } from '$lib/api-client';
 import { ProjectFeed } from './project-feed.svelte';
 
 const POLL_MS = 5000;
@@ -34,17 +35,14 @@ export class SheetProgress {
 		}
 		this.#asking = true;
 		try {
-			const response = await fetch(`/api/projects/${this.projectId}/tiles`);
-			if (response.ok) {
-				const body = (await response.json()) as TileProgress;
-				this.preparing = body.preparing;
-				this.failed = body.failed;
-				this.done = body.done;
-				this.total = body.total;
-				this.loaded = true;
-			}
+			const body = await callApi<TileProgress>(`/api/projects/${this.projectId}/tiles`);
+			this.preparing = body.preparing;
+			this.failed = body.failed;
+			this.done = body.done;
+			this.total = body.total;
+			this.loaded = true;
 		} catch {
-			// Offline for a moment: the next event or poll asks again.
+			// Offline for a moment, or refused: the next event or poll asks again.
 		} finally {
 			this.#asking = false;
 			if (this.#again) {

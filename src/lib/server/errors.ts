@@ -64,12 +64,14 @@ type AnyForm = SuperValidated<Record<string, any>, any, any>;
 
 /**
  * A DomainError as a form action's failure. With a superform, the message lands on the field
- * it names when the form has one, else as the form's message; without one, as
+ * it names when the form has one, else as the form's message (shaped by `asMessage` when the
+ * form's messages are not plain text); without one, as
  * `fail(status, { error: true, message, field, …extra })`. Anything else is thrown on.
  */
 export function formFailure<Form extends AnyForm>(
 	error: unknown,
-	form: Form
+	form: Form,
+	asMessage?: (text: string) => unknown
 ): { form: Form } | ActionFailure<{ form: Form }>;
 export function formFailure<Extra extends Record<string, unknown> = Record<never, never>>(
 	error: unknown,
@@ -79,7 +81,7 @@ export function formFailure<Extra extends Record<string, unknown> = Record<never
 export function formFailure(
 	error: unknown,
 	form?: AnyForm,
-	extra: Record<string, unknown> = {}
+	extra: Record<string, unknown> | ((text: string) => unknown) = {}
 ): unknown {
 	if (!(error instanceof DomainError)) throw error;
 	const status = error.status;
@@ -87,10 +89,11 @@ export function formFailure(
 		if (error.field && error.field in form.data) {
 			return setError(form, error.field as '', error.message, { status });
 		}
-		return message(form, error.message, { status });
+		const shaped = typeof extra === 'function' ? extra(error.message) : error.message;
+		return message(form, shaped, { status });
 	}
 	return fail(status, {
-		...extra,
+		...(typeof extra === 'function' ? {} : extra),
 		error: true as const,
 		message: error.message,
 		...(error.field ? { field: error.field } : {})

@@ -1,8 +1,8 @@
 import { fail } from '@sveltejs/kit';
-import { message, setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as welders from '$lib/server/welders';
-import { DomainError } from '$lib/server/errors';
+import { formFailure } from '$lib/server/errors';
 import { can } from '$lib/permissions';
 import {
 	welderFormSchema,
@@ -23,14 +23,7 @@ export const load = (async ({ locals }) => ({
 })) satisfies PageServerLoad;
 
 /** A refusal of the register (a stamp taken, a welder gone) shown on the form that asked. */
-function refused<T extends Record<string, unknown>>(form: SuperValidated<T>, error: unknown) {
-	if (!(error instanceof DomainError)) throw error;
-	const text = error.message;
-	if (error.field && error.field in form.data) {
-		return setError(form, error.field as never, text, { status: error.status });
-	}
-	return message(form, { tone: 'error', text } satisfies WelderNotice, { status: error.status });
-}
+const notice = (text: string): WelderNotice => ({ tone: 'error', text });
 
 export const actions = {
 	create: async ({ request, locals }) => {
@@ -41,7 +34,7 @@ export const actions = {
 			const text = `Welder ${welder.stamp} (${welder.name}) added.`;
 			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused(form, error);
+			return formFailure(error, form, notice);
 		}
 	},
 	qualify: async ({ request, locals }) => {
@@ -53,7 +46,7 @@ export const actions = {
 			const text = `${qualification.process} qualification recorded.`;
 			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused(form, error);
+			return formFailure(error, form, notice);
 		}
 	},
 	status: async ({ request, locals }) => {
@@ -64,7 +57,7 @@ export const actions = {
 			const text = `Welder marked ${form.data.status}.`;
 			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused(form, error);
+			return formFailure(error, form, notice);
 		}
 	}
 } satisfies Actions;
