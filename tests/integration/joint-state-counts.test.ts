@@ -11,6 +11,9 @@ import * as users from '$lib/server/users';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
 import * as weldLog from '$lib/server/weld-log';
+import * as projects from '$lib/server/projects';
+import * as drawings from '$lib/server/drawings';
+import { drawingListQuery } from '$lib/schemas/drawing';
 import * as welds from '$lib/server/welds';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
@@ -165,5 +168,39 @@ describe('per-drawing state counts', () => {
 			outstandingQuerySchema.parse({ area: 'Area 99 (counts test)' })
 		);
 		expect(filtered.total).toEqual(areaCounts()['Area 99 (counts test)']);
+	});
+	it('give the project overview and the drawing register the same counts as the joints', () => {
+		const direct = (sqlText: string) => {
+			const out: Record<string, Record<string, number>> = {};
+			for (const row of db.$client.prepare(sqlText).all(projectId) as {
+				key: string | number;
+				state: string;
+				n: number;
+			}[])
+				(out[String(row.key)] ??= {})[row.state] = row.n;
+			return out;
+		};
+		const nonZero = (counts: Record<string, number>) =>
+			Object.fromEntries(Object.entries(counts).filter(([, n]) => n > 0));
+
+		const project = projects.stateCounts([projectId]).get(projectId)!;
+		expect(nonZero(project)).toEqual(
+			direct(
+				'select project_id as key, state, count(*) as n from joints where project_id = ? group by state'
+			)[projectId]
+		);
+		expect(
+			Object.fromEntries(
+				projects.stateCountsByArea(projectId).map(({ area, counts }) => [area, nonZero(counts)])
+			)
+		).toEqual(areaCounts());
+
+		const register = drawings.list(projectId, drawingListQuery.parse({}));
+		const perDrawing = direct(
+			'select drawing_id as key, state, count(*) as n from joints where project_id = ? group by drawing_id, state'
+		);
+		expect(register.items.length).toBeGreaterThan(1);
+		for (const item of register.items)
+			expect(nonZero(item.counts)).toEqual(perDrawing[item.id] ?? {});
 	});
 });
