@@ -8,7 +8,8 @@ import { inspectPdf } from './pdf-inspect';
 import * as events from './events';
 import * as tiles from './tiles';
 import type { StagedUpload } from './staged-uploads';
-import { emptyCounts, type StateCounts } from '$lib/state-counts';
+import { emptyCounts } from '$lib/state-counts';
+import * as counting from './state-counts';
 import type { z } from 'zod';
 import type { DrawingListQuery, newDrawingSchema, newRevisionSchema } from '$lib/schemas/drawing';
 
@@ -108,30 +109,13 @@ export function list(projectId: number, query: DrawingListQuery) {
 		.offset((query.page - 1) * query.pageSize)
 		.all();
 	const total = db.select({ n: count() }).from(d).leftJoin(r, current).where(where).get()?.n ?? 0;
-	const counts = countsFor(rows.map((row) => row.id));
+	const counts = counting.byDrawing(rows.map((row) => row.id));
 	return {
 		items: rows.map((row) => ({ ...row, counts: counts.get(row.id) ?? emptyCounts() })),
 		total,
 		page: query.page,
 		pageSize: query.pageSize
 	};
-}
-
-function countsFor(drawingIds: number[]): Map<number, StateCounts> {
-	const result = new Map<number, StateCounts>();
-	if (drawingIds.length === 0) return result;
-	const rows = db
-		.select({ drawingId: j.drawingId, state: j.state, n: count() })
-		.from(j)
-		.where(inArray(j.drawingId, drawingIds))
-		.groupBy(j.drawingId, j.state)
-		.all();
-	for (const row of rows) {
-		const entry = result.get(row.drawingId) ?? emptyCounts();
-		entry[row.state] = row.n;
-		result.set(row.drawingId, entry);
-	}
-	return result;
 }
 
 export function areas(projectId: number): string[] {

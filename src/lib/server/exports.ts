@@ -6,15 +6,12 @@
  * saving), so the server keeps answering. A worker thread was weighed and left out: Vite's SSR
  * build does not bundle a `worker_threads` entry, so it would need a build step of its own.
  *
- * Retention: an export's row (who, when, scope, size, SHA-256 of the zip) is kept for good.
- * Its zip is removed after `EXPORT_KEEP_DAYS`, or earlier by a person who may export; the row
- * then keeps `status: 'done'` with no file, and the audit event of the removal says when and
- * by whom, which is what the history shows.
+ * Retention of the zips (expiry, removal by a person, orphans) is `export/retention.ts`.
  */
 import { DomainError } from './errors';
 import fsp from 'node:fs/promises';
 import path from 'node:path';
-import { and, desc, eq, inArray, isNotNull, lt } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import * as mail from './mail';
@@ -22,6 +19,7 @@ import * as templates from './mail-templates';
 import * as storage from './storage';
 import { config } from './config';
 import { buildPackage } from './export/package';
+import * as retention from './export/retention';
 import { preview, resolve, scopeKey } from './export/scope';
 import { describeScope, exportRequestToQuery, type ExportRequest } from '$lib/schemas/export';
 
@@ -40,7 +38,6 @@ interface Runner {
 	origins: Map<number, string>;
 	settled: Map<number, { promise: Promise<void>; resolve: () => void }>;
 	recovered: boolean;
-	cleanup: ReturnType<typeof setInterval> | null;
 }
 
 const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetExports ??= {
@@ -48,8 +45,7 @@ const runner: Runner = ((globalThis as { tacksheetExports?: Runner }).tacksheetE
 	running: null,
 	origins: new Map(),
 	settled: new Map(),
-	recovered: false,
-	cleanup: null
+	recovered: false
 });
 
 /**
@@ -355,7 +351,7 @@ export function status(exportId: number) {
 		),
 		current: row.current ?? undefined,
 		fileUrl: row.status === 'done' && fileKey ? `/api/exports/${row.id}/file` : undefined,
-		removed: row.status === 'done' && !fileKey ? removal(row.id) : undefined,
+		removed: row.status === 'done' && !fileKey ? retention.removal(row.id) : undefined,
 		/** The turnover page's query that previews this same set again. */
 		againQuery: exportRequestToQuery(request)
 	};
@@ -393,9 +389,9 @@ export function fileOf(exportId: number) {
 		.get();
 	if (!row) throw new DomainError('There is no such export.', 404);
 	if (row.status === 'done' && !row.fileKey) {
-		const removed = removal(exportId);
+		const removed = retention.removal(exportId);
 		throw new DomainError(
-			`The file of this export was removed${removed ? ` on ${dayOf(removed.at)}` : ''}; export the set again.`,
+			`The file of this export was removed${removed ? ` on ${retention.dayOf(removed.at)}` : ''}; export the set again.`,
 			410
 		);
 	}
@@ -412,162 +408,25 @@ export function fileOf(exportId: number) {
 	};
 }
 
-// Retention -----------------------------------------------------------------------------------
+// Retention (src/lib/server/export/retention.ts) ------------------------------------------------
 
-const DAY_MS = 86_400_000;
-/** How often the clean-up looks for expired zips; it is one indexed query when there are none. */
-const SWEEP_EVERY_MS = 60 * 60 * 1000;
-/** A zip no row points to (a crash mid-write) is left this long before it is removed. */
-const ORPHAN_AFTER_MS = 60 * 60 * 1000;
-const REMOVE_ACTION = 'export.file.remove';
-
-function dayOf(at: number): string {
-	return new Date(at).toISOString().slice(0, 10);
-}
-
-/** When and by whom a finished export's file was removed, from its audit event. */
-function removal(exportId: number) {
-	const row = db
-		.select({
-			at: schema.auditEvents.at,
-			by: schema.users.name,
-			byEmail: schema.users.email,
-			after: schema.auditEvents.after
-		})
-		.from(schema.auditEvents)
-		.leftJoin(schema.users, eq(schema.users.id, schema.auditEvents.userId))
-		.where(
-			and(
-				eq(schema.auditEvents.entity, 'export'),
-				eq(schema.auditEvents.entityId, String(exportId)),
-				eq(schema.auditEvents.action, REMOVE_ACTION)
-			)
-		)
-		.orderBy(desc(schema.auditEvents.id))
-		.get();
-	if (!row) return undefined;
-	const reason = (row.after as { reason?: string } | null)?.reason ?? '';
-	return { at: row.at, by: row.by ?? row.byEmail ?? null, reason };
-}
-
-/**
- * Remove a finished export's zip and keep its record. `userId` null is the clean-up; the
- * audit event carries the reason, the size and the SHA-256 the file had.
- */
-async function removeStored(exportId: number, userId: string | null, reason: string) {
-	const key = db.transaction((tx) => {
-		const row = tx.select().from(e).where(eq(e.id, exportId)).get();
-		if (!row) throw new DomainError('There is no such export.', 404);
-		if ((ACTIVE as readonly string[]).includes(row.status))
-			throw new DomainError(
-				'This export is still running: cancel it instead; its partial file is never kept.',
-				409
-			);
-		if (row.status !== 'done')
-			throw new DomainError(
-				`This export ${row.status === 'failed' ? 'failed' : 'was cancelled'} and has no file.`,
-				409
-			);
-		if (!row.fileKey) {
-			const removed = removal(exportId);
-			throw new DomainError(
-				`The file of this export was already removed${removed ? ` on ${dayOf(removed.at)}` : ''}.`,
-				409
-			);
-		}
-		tx.update(e).set({ fileKey: null }).where(eq(e.id, exportId)).run();
-		audit.record(
-			{
-				action: REMOVE_ACTION,
-				entity: 'export',
-				entityId: exportId,
-				userId,
-				projectId: row.projectId,
-				before: { fileKey: row.fileKey, bytes: row.bytes, sha256: row.sha256 },
-				after: { reason }
-			},
-			tx
-		);
-		return row.fileKey;
-	});
-	// The record says removed either way; a file that cannot be removed now is an orphan the
-	// next clean-up removes.
-	await storage.remove(key).catch((error) => console.error(`Export ${exportId}:`, error));
+/** No export queued or running in this process: the clean-up may look for orphan zips. */
+function jobsIdle() {
+	return runner.running === null && runner.queue.length === 0;
 }
 
 /** A person removes a finished export's zip ahead of time; the record stays. */
 export async function removeFile(exportId: number, userId: string) {
-	await removeStored(exportId, userId, 'removed by a person');
+	await retention.removeStored(exportId, userId, 'removed by a person');
 	return status(exportId)!;
 }
 
-/**
- * Remove zips kept longer than `keepDays` (0: none), and zips no export row points to (left by
- * a crash while one was written) once they are an hour old and no job is running. Never
- * touches a queued or running job: those have no `fileKey` until they are done.
- */
-export async function sweep(now = Date.now(), keepDays = config.exportKeepDays) {
-	let expired = 0;
-	if (keepDays > 0) {
-		const due = db
-			.select({ id: e.id })
-			.from(e)
-			.where(
-				and(eq(e.status, 'done'), isNotNull(e.fileKey), lt(e.finishedAt, now - keepDays * DAY_MS))
-			)
-			.all();
-		for (const row of due) {
-			try {
-				await removeStored(row.id, null, `kept for ${keepDays} day${keepDays === 1 ? '' : 's'}`);
-				expired++;
-			} catch (error) {
-				// Removed by a person meanwhile: nothing left to do.
-				if (!(error instanceof DomainError)) throw error;
-			}
-		}
-	}
-	let orphans = 0;
-	if (runner.running === null && runner.queue.length === 0) {
-		const folder = storage.pathOf('exports/x');
-		const known = new Set(
-			db
-				.select({ key: e.fileKey })
-				.from(e)
-				.where(isNotNull(e.fileKey))
-				.all()
-				.map((row) => row.key)
-		);
-		const names = await fsp.readdir(path.dirname(folder)).catch(() => [] as string[]);
-		for (const name of names) {
-			const key = `exports/${name}`;
-			if (known.has(key)) continue;
-			const stat = await fsp.stat(storage.pathOf(key)).catch(() => null);
-			if (!stat?.isFile() || now - stat.mtimeMs < ORPHAN_AFTER_MS) continue;
-			await storage.remove(key);
-			audit.record({
-				action: 'export.file.orphan',
-				entity: 'export',
-				after: { file: key, bytes: stat.size }
-			});
-			orphans++;
-		}
-	}
-	return { expired, orphans };
+/** Remove expired and orphan zips now (see `retention.sweep`). */
+export function sweep(now = Date.now(), keepDays = config.exportKeepDays) {
+	return retention.sweep(now, keepDays, jobsIdle);
 }
 
-/** Clean up now and then every hour, once per process; the timer never holds the process. */
+/** Clean up now and then every hour, once per process. */
 export function startCleanup() {
-	if (runner.cleanup) return;
-	const run = () =>
-		sweep()
-			.then(({ expired, orphans }) => {
-				if (expired + orphans > 0)
-					console.log(
-						`Tacksheet: removed ${expired} expired turnover zip(s), ${orphans} orphan(s).`
-					);
-			})
-			.catch((error) => console.error('Turnover clean-up:', error));
-	void run();
-	runner.cleanup = setInterval(() => void run(), SWEEP_EVERY_MS);
-	runner.cleanup.unref();
+	retention.startCleanup(jobsIdle);
 }

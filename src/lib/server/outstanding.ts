@@ -3,8 +3,9 @@
  * and what each role owes, oldest first. Counted and ordered in SQL on the joints' cached
  * state (index joints_project_state: project, state, state_since), capped per list.
  */
-import { and, asc, count, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, isNull, sql, type SQL } from 'drizzle-orm';
 import { db, schema } from './db';
+import * as counting from './state-counts';
 import { displayWeldNumber, JOINT_STATES, type JointState } from '$lib/joint-state';
 import { OWED_STATES, type OwingRole } from '$lib/outstanding';
 import type { OutstandingQuery } from '$lib/schemas/outstanding';
@@ -96,62 +97,53 @@ function perDrawing(rows: CountRow[]): Map<number, DrawingCounts> {
 }
 
 /**
- * From the counts the triggers keep (joint_state_counts): areas and systems grouped in
- * SQL, and only the drawings owing most read one by one, so 5,000 drawings cost little.
+ * From the counts the triggers keep: areas and systems from area_state_counts, and the
+ * drawings owing most from drawing_state_counts (one row per drawing), so 5,000 drawings
+ * cost one pass over 5,000 small rows.
  */
 function keptCounts(projectId: number, query: OutstandingQuery) {
-	const c = schema.jointStateCounts;
+	const p = schema.drawingStateCounts;
 	const where = and(
-		eq(c.projectId, projectId),
+		eq(p.projectId, projectId),
 		query.area !== undefined ? eq(d.area, query.area) : undefined,
-		query.drawing !== undefined ? eq(c.drawingId, query.drawing) : undefined
+		query.drawing !== undefined ? eq(p.drawingId, query.drawing) : undefined
 	);
-	const fromCounts = () => db.select().from(c).innerJoin(d, eq(d.id, c.drawingId)).$dynamic();
-	const systemRows = db
-		.select({ area: d.area, system: d.system, state: c.state, n: sql<number>`sum(${c.n})` })
-		.from(c)
-		.innerJoin(d, eq(d.id, c.drawingId))
-		.where(where)
-		.groupBy(d.area, d.system, c.state)
-		.all();
-	const owedSum = sql<number>`sum(case when ${c.state} in (${sql.join(
-		OWED.map((state) => sql`${state}`),
-		sql`, `
-	)}) then ${c.n} else 0 end)`;
+	const owedSum = sql.join(
+		OWED.map((state) => sql`coalesce(${p.counts} ->> ${state}, 0)`),
+		sql` + `
+	);
 	const top = db
-		.select({ drawingId: c.drawingId })
-		.from(c)
-		.innerJoin(d, eq(d.id, c.drawingId))
+		.select({ drawingId: d.id, number: d.number, area: d.area, system: d.system, counts: p.counts })
+		.from(p)
+		.innerJoin(d, eq(d.id, p.drawingId))
 		.where(where)
-		.groupBy(c.drawingId)
 		.orderBy(desc(owedSum), asc(d.number))
 		.limit(DRAWING_ROWS)
-		.all()
-		.map((row) => row.drawingId);
+		.all();
 	const drawingsTotal =
-		db
-			.select({ n: sql<number>`count(distinct ${c.drawingId})` })
-			.from(c)
-			.innerJoin(d, eq(d.id, c.drawingId))
-			.where(where)
-			.get()?.n ?? 0;
-	const drawingRows = top.length
-		? (fromCounts()
-				.where(inArray(c.drawingId, top))
-				.all()
-				.map((row) => ({
-					area: row.drawings.area,
-					system: row.drawings.system,
-					drawingId: row.drawings.id,
-					drawingNumber: row.drawings.number,
-					state: row.joint_state_counts.state,
-					n: row.joint_state_counts.n
-				})) satisfies CountRow[])
-		: [];
-	const drawings = perDrawing(drawingRows);
+		db.select({ n: count() }).from(p).innerJoin(d, eq(d.id, p.drawingId)).where(where).get()?.n ??
+		0;
+	// Areas and systems from their own kept counts; one drawing's from its own row.
+	const systemRows =
+		query.drawing === undefined
+			? counting.byAreaAndSystem(projectId, query.area)
+			: top.flatMap((row) =>
+					(Object.entries(row.counts) as [JointState, number][]).map(([state, n]) => ({
+						area: row.area,
+						system: row.system,
+						state,
+						n
+					}))
+				);
 	return {
 		...rollUp(systemRows),
-		byDrawing: top.map((id) => drawings.get(id)!).filter(Boolean),
+		byDrawing: top.map((row) => ({
+			drawingId: row.drawingId,
+			number: row.number,
+			area: row.area,
+			system: row.system,
+			counts: { ...row.counts } as Counts
+		})),
 		drawingsTotal
 	};
 }
@@ -197,7 +189,12 @@ export function counts(projectId: number, query: OutstandingQuery) {
  * One state's joints, oldest in that state first, with the sheet page of the current pin;
  * `offset` skips that many, for "show more".
  */
-export function owedList(projectId: number, state: JointState, query: OutstandingQuery) {
+export function owedList(
+	projectId: number,
+	state: JointState,
+	query: OutstandingQuery,
+	knownTotal?: number
+) {
 	const where = and(...filters(projectId, query), eq(j.state, state));
 	const items = db
 		.select({
@@ -230,7 +227,7 @@ export function owedList(projectId: number, state: JointState, query: Outstandin
 		.limit(query.limit)
 		.offset(query.offset)
 		.all();
-	const total = stateTotal(projectId, state, query);
+	const total = knownTotal ?? stateTotal(projectId, state, query);
 	return {
 		state,
 		total,
@@ -274,13 +271,18 @@ function stateTotal(projectId: number, state: JointState, query: OutstandingQuer
 	);
 }
 
-/** What each role owes, state by state. */
-export function owed(projectId: number, query: OutstandingQuery) {
+/**
+ * What each role owes, state by state; `totals` (the board's counts, same filters) saves
+ * counting each state again.
+ */
+export function owed(projectId: number, query: OutstandingQuery, totals?: Counts) {
 	const roles = Object.keys(OWED_STATES) as OwingRole[];
 	return Object.fromEntries(
 		roles.map((role) => [
 			role,
-			OWED_STATES[role].map((s) => owedList(projectId, s, { ...query, offset: 0 }))
+			OWED_STATES[role].map((s) =>
+				owedList(projectId, s, { ...query, offset: 0 }, totals ? (totals[s] ?? 0) : undefined)
+			)
 		])
 	) as Record<OwingRole, ReturnType<typeof owedList>[]>;
 }
@@ -328,11 +330,12 @@ export function recentlyClosed(projectId: number, limit = 20) {
 
 /** The whole board, as GET /api/projects/{id}/outstanding answers it. */
 export function board(projectId: number, query: OutstandingQuery) {
+	const counted = counts(projectId, query);
 	return {
 		now: Date.now(),
 		states: JOINT_STATES,
-		counts: counts(projectId, query),
-		owed: owed(projectId, query),
+		counts: counted,
+		owed: owed(projectId, query, counted.total),
 		openRequests:
 			db
 				.select({ n: count() })

@@ -1,7 +1,8 @@
 /** Projects and the counts their overview shows. */
 import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
-import { emptyCounts, type StateCounts } from '$lib/state-counts';
+import type { StateCounts } from '$lib/state-counts';
+import * as counting from './state-counts';
 import * as audit from './audit';
 import type { z } from 'zod';
 import type { UnitSystem } from '$lib/domain';
@@ -56,37 +57,14 @@ export function get(projectId: number) {
 	return db.select().from(schema.projects).where(eq(schema.projects.id, projectId)).get();
 }
 
-/** Joints per state for each of the given projects, in one grouped query. */
+/** Joints per state for each of the given projects, from the kept counts. */
 export function stateCounts(projectIds: readonly number[]): Map<number, StateCounts> {
-	const result = new Map(projectIds.map((id) => [id, emptyCounts()]));
-	if (projectIds.length === 0) return result;
-	const rows = db
-		.select({ projectId: schema.joints.projectId, state: schema.joints.state, n: count() })
-		.from(schema.joints)
-		.where(inArray(schema.joints.projectId, [...projectIds]))
-		.groupBy(schema.joints.projectId, schema.joints.state)
-		.all();
-	for (const row of rows) result.get(row.projectId)![row.state] = row.n;
-	return result;
+	return counting.byProject(projectIds);
 }
 
 /** Joints per state and area, for the overview's breakdown. */
 export function stateCountsByArea(projectId: number) {
-	const rows = db
-		.select({ area: schema.drawings.area, state: schema.joints.state, n: count() })
-		.from(schema.joints)
-		.innerJoin(schema.drawings, eq(schema.drawings.id, schema.joints.drawingId))
-		.where(eq(schema.joints.projectId, projectId))
-		.groupBy(schema.drawings.area, schema.joints.state)
-		.orderBy(asc(schema.drawings.area))
-		.all();
-	const areas = new Map<string, StateCounts>();
-	for (const row of rows) {
-		const counts = areas.get(row.area) ?? emptyCounts();
-		counts[row.state] = row.n;
-		areas.set(row.area, counts);
-	}
-	return [...areas].map(([area, counts]) => ({ area, counts }));
+	return counting.byArea(projectId);
 }
 
 /** Pins that a document controller still has to confirm on current revisions. */

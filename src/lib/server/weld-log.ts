@@ -19,7 +19,7 @@ import { db, schema } from './db';
 import { stateRank } from './db/schema';
 import { displayWeldNumber, effectiveInspections, type Decision } from '$lib/joint-state';
 import { standingSql } from './inspections';
-import { emptyCounts, type StateCounts } from '$lib/state-counts';
+import * as counting from './state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
 import type { WeldLogFilter, WeldLogQuery } from '$lib/schemas/weld-log';
 
@@ -412,64 +412,9 @@ export function fileName(projectCode: string, extension: 'csv' | 'xlsx', at = ne
 	return `${code}-weld-log-${at.toISOString().slice(0, 10)}.${extension}`;
 }
 
-/**
- * Joints per state for the project and each area, from the per-drawing counts the triggers
- * keep (table joint_state_counts), grouped by area in SQL; the per-drawing figures
- * themselves only when asked, since a plant job has thousands.
- */
+/** Joints per state for the project and each area (each drawing's when asked): the kept counts. */
 export function summary(projectId: number, { drawings = false } = {}) {
-	const c = schema.jointStateCounts;
-	const areaRows = db
-		.select({ area: d.area, state: c.state, n: sql<number>`sum(${c.n})` })
-		.from(c)
-		.innerJoin(d, eq(d.id, c.drawingId))
-		.where(eq(c.projectId, projectId))
-		.groupBy(d.area, c.state)
-		.all();
-	const total = emptyCounts();
-	const perArea = new Map<string, StateCounts>();
-	for (const row of areaRows) {
-		total[row.state] += row.n;
-		const counts = perArea.get(row.area) ?? emptyCounts();
-		counts[row.state] += row.n;
-		perArea.set(row.area, counts);
-	}
-	return {
-		counts: total,
-		byArea: [...perArea]
-			.sort(([a], [b]) => a.localeCompare(b))
-			.map(([area, counts]) => ({ area, counts })),
-		...(drawings ? { byDrawing: drawingCounts(projectId) } : {})
-	};
-}
-
-/**
- * Each drawing with joints, in number order, with its joints per state: the drawings off
- * their number index and the counts off theirs, joined here rather than sorted in SQL.
- */
-function drawingCounts(projectId: number) {
-	const c = schema.jointStateCounts;
-	const perDrawing = new Map<number, StateCounts>();
-	for (const row of db
-		.select({ drawingId: c.drawingId, state: c.state, n: c.n })
-		.from(c)
-		.where(eq(c.projectId, projectId))
-		.all()) {
-		const counts = perDrawing.get(row.drawingId) ?? emptyCounts();
-		counts[row.state] += row.n;
-		perDrawing.set(row.drawingId, counts);
-	}
-	const byDrawing: { id: number; number: string; area: string; counts: StateCounts }[] = [];
-	for (const drawing of db
-		.select({ id: d.id, number: d.number, area: d.area })
-		.from(d)
-		.where(eq(d.projectId, projectId))
-		.orderBy(asc(d.number))
-		.all()) {
-		const counts = perDrawing.get(drawing.id);
-		if (counts) byDrawing.push({ ...drawing, counts });
-	}
-	return byDrawing;
+	return counting.summary(projectId, { drawings });
 }
 
 const DAY_MS = 86_400_000;

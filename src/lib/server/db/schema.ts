@@ -436,6 +436,45 @@ export const jointStateCounts = sqliteTable(
 	]
 );
 
+/**
+ * Joints per state for each area and system of a project (the area and system the drawing is
+ * in now): what the board's and the summary's area and system rows read, a few hundred rows
+ * on a plant job. Kept from `joint_state_counts` and `drawings` by triggers written by hand
+ * in drizzle/0006_area_drawing_counts.sql, in the same transaction as the change.
+ */
+export const areaStateCounts = sqliteTable(
+	'area_state_counts',
+	{
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		area: text('area').notNull(),
+		system: text('system').notNull(),
+		state: text('state').$type<JointState>().notNull(),
+		n: integer('n').notNull()
+	},
+	(t) => [primaryKey({ columns: [t.projectId, t.area, t.system, t.state] })]
+);
+
+/**
+ * One row per drawing with joints: its joints per state as a JSON object (`{"accepted": 12,
+ * …}`, states with none left out), so the per-drawing summary reads one row per drawing
+ * whatever states there are. Kept from `joint_state_counts` by triggers (same migration).
+ */
+export const drawingStateCounts = sqliteTable(
+	'drawing_state_counts',
+	{
+		drawingId: integer('drawing_id')
+			.primaryKey()
+			.references(() => drawings.id, { onDelete: 'cascade' }),
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		counts: text('counts', { mode: 'json' }).$type<Partial<Record<JointState, number>>>().notNull()
+	},
+	(t) => [index('drawing_state_counts_project').on(t.projectId, t.drawingId)]
+);
+
 export const pins = sqliteTable(
 	'pins',
 	{

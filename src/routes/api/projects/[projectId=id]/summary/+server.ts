@@ -1,6 +1,5 @@
-import { json } from '@sveltejs/kit';
 import { z } from 'zod';
-import * as weldLog from '$lib/server/weld-log';
+import * as counting from '$lib/server/state-counts';
 import { invalid } from '$lib/server/api';
 import type { RequestHandler } from './$types';
 
@@ -8,9 +7,15 @@ const summaryQuery = z.object({
 	include: z.enum(['drawings'], { error: 'include is "drawings" or left out.' }).optional()
 });
 
-/** Joints per state for the project and per area; `?include=drawings` adds each drawing. */
+/**
+ * Joints per state for the project and per area; `?include=drawings` adds each drawing,
+ * written as JSON by SQLite from the kept counts.
+ */
 export const GET: RequestHandler = ({ locals, url }) => {
 	const query = summaryQuery.safeParse({ include: url.searchParams.get('include') || undefined });
 	if (!query.success) return invalid(query);
-	return json(weldLog.summary(locals.projectId!, { drawings: query.data.include === 'drawings' }));
+	const body = counting.summaryJson(locals.projectId!, {
+		drawings: query.data.include === 'drawings'
+	});
+	return new Response(body, { headers: { 'content-type': 'application/json' } });
 };
