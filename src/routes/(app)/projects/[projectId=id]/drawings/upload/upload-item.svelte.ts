@@ -1,5 +1,6 @@
 /** One dropped file on its way to the register: what it will become, and how its upload goes. */
 import { proposeFromFileName } from '$lib/drawing-names';
+import { statusText } from '$lib/api-client';
 
 export interface ExistingDrawing {
 	id: number;
@@ -110,7 +111,7 @@ export class UploadItem {
 						: `Registered with revision ${body.revision.label}.`;
 				} else {
 					this.status = 'failed';
-					this.message = body?.error ?? `The server answered ${xhr.status}. Try again.`;
+					this.message = body?.error ?? statusText(xhr.status);
 				}
 				resolve();
 			};
