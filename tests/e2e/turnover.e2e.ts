@@ -93,9 +93,13 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 	// The caution travels with the verdicts: in the manifest and atop both CSV files.
 	expect(manifest.notice).toBe(CAUTION);
 	for (const name of ['weld-log.csv', 'inspections.csv'])
-		expect(entries.get(name)!.toString('utf8').replace(/^\uFEFF/, ''), name).toMatch(
-			/^"Notice: Verdicts are an aid\./
-		);
+		expect(
+			entries
+				.get(name)!
+				.toString('utf8')
+				.replace(/^\uFEFF/, ''),
+			name
+		).toMatch(/^"Notice: Verdicts are an aid\./);
 	expect(manifest.files.map((f) => f.name)).toEqual([...entries.keys()].slice(0, -1));
 	for (const file of manifest.files) {
 		const bytes = entries.get(file.name)!;

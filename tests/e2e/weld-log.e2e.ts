@@ -176,7 +176,9 @@ test('the progress page draws its chart, and its figures agree with the summary'
 		)
 		.toBeGreaterThan(1000);
 
-	await expect(page.getByRole('columnheader', { name: `Of ${live} welds (not void)` })).toBeVisible();
+	await expect(
+		page.getByRole('columnheader', { name: `Of ${live} welds (not void)` })
+	).toBeVisible();
 	const newest = page.locator('section[aria-labelledby="progress-figures"] tbody tr').first();
 	await expect(newest.locator('td').nth(2)).toHaveText(String(summary.counts.accepted));
 	await expect(
