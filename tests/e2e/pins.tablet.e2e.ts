@@ -190,4 +190,8 @@ test('the document controller reviews pins carried to a new revision', async ({ 
 	await page.getByRole('button', { name: 'Close the weld card' }).click();
 	await review.getByRole('button').first().click();
 	await expect(history).toHaveCount(0);
+	// The card takes focus when it opens, and Escape closes it.
+	await expect(page.getByTestId('joint-card')).toBeFocused();
+	await page.keyboard.press('Escape');
+	await expect(page.getByTestId('joint-card')).toHaveCount(0);
 });

@@ -224,8 +224,27 @@ export function detail(jointId: number) {
 	const replacedBy =
 		db.select({ id: j.id, number: j.number }).from(j).where(eq(j.replacesJointId, jointId)).get() ??
 		null;
+	// The hold points called on this weld and not yet inspected: who called them, when, why.
+	const openRequests = db
+		.select({
+			stage: schema.inspectionRequests.stage,
+			note: schema.inspectionRequests.note,
+			requestedAt: schema.inspectionRequests.requestedAt,
+			requestedBy: schema.users.name,
+			requestedByEmail: schema.users.email
+		})
+		.from(schema.inspectionRequests)
+		.leftJoin(schema.users, eq(schema.users.id, schema.inspectionRequests.requestedBy))
+		.where(
+			and(
+				eq(schema.inspectionRequests.jointId, jointId),
+				isNull(schema.inspectionRequests.closedAt)
+			)
+		)
+		.all();
 	return {
 		...joint,
+		openRequests,
 		// A project's own set travels with the joint, so the card's live verdict judges by it.
 		criteriaSet: criteriaSets.isBuiltIn(joint.criteriaSetId)
 			? null

@@ -28,6 +28,14 @@ export interface JointDetail {
 	voidedAt: number | null;
 	state: JointState;
 	stateLabel: string;
+	/** Hold points called on the weld and not yet inspected (absent in older answers). */
+	openRequests?: {
+		stage: 'fitup' | 'visual';
+		note: string;
+		requestedAt: number;
+		requestedBy: string | null;
+		requestedByEmail: string | null;
+	}[];
 	next: string;
 	owner: 'foreman' | 'inspector' | null;
 	repairCycle: number;
