@@ -29,6 +29,24 @@ export function isAbortError(error: unknown): boolean {
 	return error instanceof DOMException && error.name === 'AbortError';
 }
 
+/**
+ * What a refused or failed request means and what to do, for an answer without its own
+ * message (a proxy's page, a crash): never a bare status code.
+ */
+export function statusText(status: number): string {
+	if (status === 401) return 'You are signed out. Sign in again, then repeat the change.';
+	if (status === 403)
+		return 'Your role on this project does not allow that. Ask an administrator if you need it.';
+	if (status === 404) return 'That is no longer there. Reload the page to see what is.';
+	if (status === 409)
+		return 'Someone changed this since you opened it. Reload, check what changed, then try again.';
+	if (status === 413) return 'That is too large to send.';
+	if (status === 429) return 'Too many tries in a short time. Wait a minute, then try again.';
+	if (status >= 500)
+		return `The server could not finish this (error ${status}); nothing was saved. Try again in a moment; if it keeps failing, tell your administrator.`;
+	return `The request was refused (error ${status}). Reload the page and try again.`;
+}
+
 export async function callApi<T>(url: string, init: RequestInit = {}): Promise<T> {
 	let response: Response;
 	try {
@@ -51,7 +69,7 @@ export async function callApi<T>(url: string, init: RequestInit = {}): Promise<T
 	if (!response.ok) {
 		throw {
 			status: response.status,
-			error: body.error ?? `The server answered ${response.status}.`,
+			error: body.error ?? statusText(response.status),
 			...(body.field ? { field: body.field } : {})
 		} satisfies ApiFailure;
 	}

@@ -24,7 +24,7 @@ describe('which records a correction may supersede', () => {
 	it('takes a record once: afterwards its correction is the one to correct', () => {
 		const correction = { ...visual, id: 3, supersedesId: 2 };
 		const context = { voided: false, welded: true, repairCycle: 0, records: [visual, correction] };
-		expect(correctionRefusal(visual, context)).toBe('Corrected by #3.');
+		expect(correctionRefusal(visual, context)).toBe('Corrected by record 3.');
 		expect(correctionRefusal(correction, context)).toBeNull();
 		expect(correctionRefusal(correction, { ...context, voided: true })).toMatch(/void/);
 	});
@@ -43,7 +43,7 @@ describe('a correction as the server takes it', () => {
 		).toMatchObject({ status: 400, field: 'supersedes' });
 		expect(
 			correctionRequestRefusal(9, undefined, { stage: 'fitup' }, joint, context)
-		).toMatchObject({ status: 400, message: 'Inspection #9 is not a record of joint 12.' });
+		).toMatchObject({ status: 400, message: 'Record 9 is not a record of weld 12.' });
 		expect(
 			correctionRequestRefusal(1, { ...fitup, jointId: 7 }, { stage: 'visual' }, joint, context)!
 				.message
@@ -60,6 +60,8 @@ describe('a correction as the server takes it', () => {
 			{ voided: false, welded: true, repairCycle: 0, records: [fitup, visual, correction] }
 		);
 		expect(refusal).toMatchObject({ status: 409, field: 'supersedes' });
-		expect(refusal!.message).toMatch(/already been corrected by #3; correct #3 instead/);
+		expect(refusal!.message).toMatch(
+			/already been corrected by record 3; correct record 3 instead/
+		);
 	});
 });

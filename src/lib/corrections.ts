@@ -60,7 +60,7 @@ export function correctionRefusal(
 		case 'void':
 			return 'The joint is void.';
 		case 'corrected':
-			return `Corrected by #${problem.by}.`;
+			return `Corrected by record ${problem.by}.`;
 		case 'welded':
 			return 'The joint has been welded since this fit-up.';
 		case 'repaired':
@@ -85,14 +85,14 @@ export function correctionRequestRefusal(
 		return {
 			status: 400,
 			field,
-			message: `Inspection #${id} is not a record of joint ${joint.number}.`
+			message: `Record ${id} is not a record of weld ${joint.number}.`
 		};
 	}
 	if (record.stage !== input.stage || (record.stage === 'nde' && record.method !== input.method)) {
 		return {
 			status: 400,
 			field,
-			message: `Inspection #${id} is a ${stageWord(record.stage, record.method)} record; a correction keeps the stage${record.method ? ' and method' : ''} of the record it replaces.`
+			message: `Record ${id} is a ${stageWord(record.stage, record.method)} record; a correction keeps the stage${record.method ? ' and method' : ''} of the record it replaces.`
 		};
 	}
 	const problem = correctionProblem(record, context);
@@ -108,7 +108,7 @@ export function correctionRequestRefusal(
 			return {
 				status: 409,
 				field,
-				message: `Inspection #${id} has already been corrected by #${problem.by}; correct #${problem.by} instead.`
+				message: `Record ${id} has already been corrected by record ${problem.by}; correct record ${problem.by} instead.`
 			};
 		case 'welded':
 			return {
@@ -120,7 +120,7 @@ export function correctionRequestRefusal(
 			return {
 				status: 409,
 				field,
-				message: `Inspection #${id} belongs to weld ${displayWeldNumber(joint.number, record.repairCycle)}; the joint has since been repaired (${displayWeldNumber(joint.number, context.repairCycle)}), so that record stands as it was.`
+				message: `Record ${id} belongs to weld ${displayWeldNumber(joint.number, record.repairCycle)}; the weld has since been repaired (${displayWeldNumber(joint.number, context.repairCycle)}), so that record stands as it was.`
 			};
 	}
 }

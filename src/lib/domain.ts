@@ -12,6 +12,24 @@ export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
 export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
 export type JointKind = (typeof JOINT_KINDS)[number];
 
+/** The joint type as screens and files word it. */
+export const JOINT_KIND_LABELS: Record<JointKind, string> = {
+	butt: 'Butt',
+	fillet: 'Fillet',
+	socket: 'Socket',
+	branch: 'Branch'
+};
+
+/**
+ * Drawing types (stored as `isometric`, `shop`, `structural`). The stored `shop` is worded
+ * "Fabrication detail", so it never reads like a shop weld.
+ */
+export const DRAWING_TYPE_LABELS = {
+	isometric: 'Isometric',
+	shop: 'Fabrication detail',
+	structural: 'Structural'
+} as const;
+
 export const JOINT_LOCATIONS = ['shop', 'field'] as const;
 export type JointLocation = (typeof JOINT_LOCATIONS)[number];
 
@@ -30,9 +48,19 @@ export type NdeMethod = (typeof NDE_METHODS)[number];
 export const VERDICTS = ['within', 'outside', 'judge'] as const;
 export type Verdict = (typeof VERDICTS)[number];
 
+/** A verdict as screens and files word it. */
+export const VERDICT_LABELS: Record<Verdict, string> = {
+	within: 'Within',
+	outside: 'Outside',
+	judge: "Inspector's judgement"
+};
+
 /** What the inspector signs. */
 export const DECISIONS = ['accept', 'reject'] as const;
 export type Decision = (typeof DECISIONS)[number];
+
+/** A decision as screens and files word it. */
+export const DECISION_LABELS: Record<Decision, string> = { accept: 'Accept', reject: 'Reject' };
 
 export const WELD_PASSES = ['root', 'fill', 'cap'] as const;
 export type WeldPass = (typeof WELD_PASSES)[number];

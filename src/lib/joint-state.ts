@@ -45,10 +45,8 @@ export interface Glyph {
 	shape: string;
 	/** Filled with the state's colour, or drawn as a ring on white. */
 	filled: boolean;
-	/** A mark inside the shape, stroked. */
+	/** A mark inside the shape, stroked. Glyphs are always drawn (SVG, PDF), never typed. */
 	mark?: string;
-	/** One character for places where only text fits (lists, CSV). */
-	symbol: string;
 }
 
 const circle = 'M 0 -9 A 9 9 0 1 1 0 9 A 9 9 0 1 1 0 -9 Z';
@@ -58,74 +56,72 @@ export const STATE_LOOKS: Record<JointState, StateLook> = {
 		label: 'Awaiting fit-up',
 		next: 'Fit-up inspection',
 		owner: 'inspector',
-		color: '#5d6f86',
+		color: '#627da0',
 		onColor: '#ffffff',
-		glyph: { shape: circle, filled: false, symbol: '○' }
+		glyph: { shape: circle, filled: false }
 	},
 	fitup_rejected: {
 		label: 'Fit-up rejected',
 		next: 'Correct the fit-up and call the inspector again',
 		owner: 'foreman',
-		color: '#b4531f',
+		color: '#b5541f',
 		onColor: '#ffffff',
-		glyph: { shape: circle, filled: false, mark: 'M -6.4 6.4 L 6.4 -6.4', symbol: '⊘' }
+		glyph: { shape: circle, filled: false, mark: 'M -6.4 6.4 L 6.4 -6.4' }
 	},
 	ready_to_weld: {
 		label: 'Ready to weld',
 		next: 'Weld the joint',
 		owner: 'foreman',
-		color: '#1d7585',
+		color: '#236972',
 		onColor: '#ffffff',
-		glyph: { shape: 'M 0 -9.5 L 9.5 7.5 L -9.5 7.5 Z', filled: true, symbol: '▲' }
+		glyph: { shape: 'M 0 -9.5 L 9.5 7.5 L -9.5 7.5 Z', filled: true }
 	},
 	awaiting_visual: {
 		label: 'Awaiting visual',
 		next: 'Visual inspection',
 		owner: 'inspector',
-		color: '#a67c00',
+		color: '#d17b00',
 		onColor: '#1a1a1a',
-		glyph: { shape: 'M 0 -10 L 10 0 L 0 10 L -10 0 Z', filled: true, symbol: '◆' }
+		glyph: { shape: 'M 0 -10 L 10 0 L 0 10 L -10 0 Z', filled: true }
 	},
 	repair: {
 		label: 'Repair',
 		next: 'Repair the weld',
 		owner: 'foreman',
-		color: '#b3261e',
+		color: '#9b211b',
 		onColor: '#ffffff',
 		glyph: {
 			shape: 'M -8.5 -8.5 L 8.5 -8.5 L 8.5 8.5 L -8.5 8.5 Z',
 			filled: true,
-			mark: 'M -4.5 -4.5 L 4.5 4.5 M 4.5 -4.5 L -4.5 4.5',
-			symbol: '✕'
+			mark: 'M -4.5 -4.5 L 4.5 4.5 M 4.5 -4.5 L -4.5 4.5'
 		}
 	},
 	awaiting_nde: {
 		label: 'Awaiting NDE',
 		next: 'NDE and its result',
 		owner: 'inspector',
-		color: '#6a4c9c',
+		color: '#6a4ba1',
 		onColor: '#ffffff',
 		glyph: {
 			shape: 'M -4.8 -8.5 L 4.8 -8.5 L 9.7 0 L 4.8 8.5 L -4.8 8.5 L -9.7 0 Z',
-			filled: true,
-			symbol: '⬢'
+			filled: true
 		}
 	},
 	accepted: {
 		label: 'Accepted',
-		next: 'Nothing: complete',
+		next: 'Complete',
 		owner: null,
-		color: '#2f7d3b',
+		color: '#3b8654',
 		onColor: '#ffffff',
-		glyph: { shape: circle, filled: true, mark: 'M -4.6 0.4 L -1.4 3.8 L 5 -3.6', symbol: '✓' }
+		glyph: { shape: circle, filled: true, mark: 'M -4.6 0.4 L -1.4 3.8 L 5 -3.6' }
 	},
 	void: {
 		label: 'Void',
-		next: 'Nothing: voided',
+		next: '—',
 		owner: null,
 		color: '#868c92',
 		onColor: '#ffffff',
-		glyph: { shape: circle, filled: false, mark: 'M -5.5 0 L 5.5 0', symbol: '–' }
+		glyph: { shape: circle, filled: false, mark: 'M -5.5 0 L 5.5 0' }
 	}
 };
 

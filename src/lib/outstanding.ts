@@ -17,6 +17,12 @@ export const ROLE_NAMES: Record<OwingRole, string> = {
 	inspector: 'Welding inspector'
 };
 
+/** The heading of what a role owes, as the crew says it. */
+export const WAITING_ON: Record<OwingRole, string> = {
+	foreman: 'Waiting on the foreman',
+	inspector: 'Waiting on the inspector'
+};
+
 const HOUR = 3_600_000;
 const DAY = 24 * HOUR;
 

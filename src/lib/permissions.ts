@@ -17,7 +17,7 @@ export const ROLE_LABELS: Record<ProjectRole | 'admin', string> = {
 	doc_controller: 'Document controller',
 	inspector: 'Welding inspector',
 	foreman: 'Welding foreman',
-	turnover: 'Turnover',
+	turnover: 'Turnover team',
 	viewer: 'Viewer'
 };
 

@@ -56,7 +56,7 @@ describe('the order of a joint’s records', () => {
 			]
 		};
 		const refusal = ask('visual', welded);
-		expect(refusal!.message).toMatch(/#2, reject, R\. Okafor on 2026-03-04/);
+		expect(refusal!.message).toMatch(/record 2, reject, R\. Okafor on 2026-03-04/);
 		expect(refusal!.message).toMatch(/repair weld \(12-R1\) comes next/);
 		// A correction of that visual does not count against itself.
 		expect(ask('visual', welded, { correctingId: 2 })).toBeNull();

@@ -37,7 +37,7 @@ function dateOf(ms: number): string {
 }
 
 function describe(r: OrderedRecord): string {
-	return `#${r.id}, ${r.decision}, ${r.inspector ?? 'inspector'} on ${dateOf(r.inspectedAt)}`;
+	return `record ${r.id}, ${r.decision}, ${r.inspector ?? 'inspector'} on ${dateOf(r.inspectedAt)}`;
 }
 
 /** Why this record cannot be taken now, or null when it comes in its turn. */

@@ -3,6 +3,8 @@
  * writers and the turnover export all name and read the columns the same way.
  */
 import { STATE_LOOKS, type JointState, type Decision } from './joint-state';
+import { yesNo } from './words';
+import { JOINT_KIND_LABELS, type JointKind } from './domain';
 
 export interface WeldLogRow {
 	id: number;
@@ -82,8 +84,18 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 	},
 	{ id: 'revision', header: 'Rev', value: (r) => r.revision ?? '', shown: true },
 	{ id: 'weldNumber', header: 'Weld no.', value: (r) => r.weldNumber, shown: true, sort: 'number' },
-	{ id: 'kind', header: 'Kind', value: (r) => r.kind, shown: true },
-	{ id: 'location', header: 'Shop / field', value: (r) => r.location, shown: false },
+	{
+		id: 'kind',
+		header: 'Joint type',
+		value: (r) => JOINT_KIND_LABELS[r.kind as JointKind] ?? r.kind,
+		shown: true
+	},
+	{
+		id: 'location',
+		header: 'Shop / field',
+		value: (r) => (r.location === 'field' ? 'Field' : r.location === 'shop' ? 'Shop' : r.location),
+		shown: false
+	},
 	{ id: 'size', header: 'Size', value: (r) => r.size, shown: true },
 	{ id: 'thickness', header: 'Thickness', value: (r) => r.thickness, shown: false },
 	{ id: 'material', header: 'Material', value: (r) => r.material, shown: false, width: 16 },
@@ -167,7 +179,7 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 	{
 		id: 'againstVerdict',
 		header: 'Against verdict',
-		value: (r) => (r.againstVerdict ? 'yes' : 'no'),
+		value: (r) => yesNo(r.againstVerdict),
 		shown: true
 	},
 	{ id: 'repairCount', header: 'Repairs', value: (r) => r.repairCount, shown: false },

@@ -88,9 +88,9 @@ test('a visual result corrected with a reason, then the weld cut out and replace
 	);
 
 	// Correct it: the form opens with the readings as typed.
-	await card.getByRole('button', { name: `Correct #${original.id}…` }).tap();
+	await card.getByRole('button', { name: `Correct record ${original.id}…` }).tap();
 	const form = card.getByTestId('correct-inspection');
-	await expect(form).toContainText(`Correct the visual inspection #${original.id}`);
+	await expect(form).toContainText(`Correct the visual inspection record ${original.id}`);
 	const undercut = form.getByRole('textbox', { name: 'Undercut depth' });
 	await expect(undercut).toHaveValue('1/32');
 	await expect(form.getByRole('textbox', { name: /Reinforcement/ })).toHaveValue('1/16');
@@ -116,18 +116,18 @@ test('a visual result corrected with a reason, then the weld cut out and replace
 	});
 	expect(edit.status()).toBe(200);
 	await form.getByRole('button', { name: 'Sign the correction' }).tap();
-	await expect(form.getByRole('alert')).toContainText(/Someone else changed joint .* Reload it/);
+	await expect(form.getByRole('alert')).toContainText(/Someone else changed weld .* Reload it/);
 	await expect(undercut).toHaveValue('1/16');
 	await form.getByRole('button', { name: 'Sign the correction' }).tap();
 
 	await expect(card.getByTestId('joint-state')).toHaveText('Repair');
 	const old = card.locator(`[data-testid=inspection-record][data-record-id="${original.id}"]`);
 	await expect(old).toHaveAttribute('data-corrected', 'yes');
-	await expect(old.getByTestId('corrected-by')).toContainText(/Corrected by #\d+, /);
+	await expect(old.getByTestId('corrected-by')).toContainText(/Corrected by record \d+, /);
 	await expect(old).toContainText('Undercut depth 1/32');
 	const correction = card
 		.getByTestId('inspection-record')
-		.filter({ hasText: `Correction of #${original.id}` });
+		.filter({ hasText: `Correction of record ${original.id}` });
 	await expect(correction).toContainText('Visual rejected');
 	await expect(correction).toContainText('verdict: outside');
 	await expect(correction).toContainText('Re-gauged at the 6 o’clock toe');

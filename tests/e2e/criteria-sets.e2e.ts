@@ -47,7 +47,7 @@ test('a project set derived by the administrator governs the live verdict', asyn
 	await page.goto('/projects/1/settings/criteria');
 	await page
 		.locator('li[data-set-id="asme-b31.3-normal"]')
-		.getByRole('button', { name: 'Derive a set' })
+		.getByRole('button', { name: 'Copy as a project set' })
 		.click();
 	const editor = page.getByTestId('criteria-editor');
 	await editor.getByLabel('Id', { exact: true }).fill('ps-201-e2e');
@@ -59,7 +59,7 @@ test('a project set derived by the administrator governs the live verdict', asyn
 	await expect(undercut).toContainText('Table 341.3.2, undercut, criterion H');
 	await undercut.getByLabel('Change for this project').check();
 	await undercut.getByLabel('Rule').selectOption('max');
-	await undercut.getByLabel('Greatest value').fill('1/64');
+	await undercut.getByLabel('Maximum', { exact: true }).fill('1/64');
 	// A changed limit without its clause is refused, nothing lost.
 	await editor.getByRole('button', { name: 'Create the set' }).click();
 	await expect(editor.getByRole('alert')).toContainText('project specification clause');
@@ -75,7 +75,7 @@ test('a project set derived by the administrator governs the live verdict', asyn
 	await page.getByTestId('weld-search').press('Enter');
 	const adminCard = page.getByTestId('joint-card');
 	await adminCard.getByLabel('Criteria set').selectOption('ps-201-e2e');
-	await adminCard.getByRole('button', { name: 'Save joint' }).click();
+	await adminCard.getByRole('button', { name: 'Save weld details' }).click();
 	await expect(adminCard.getByText('Saved.')).toBeVisible();
 
 	// The inspector's live verdict: 1/32 in is deeper than the project's 1/64 in.

@@ -113,7 +113,7 @@ test('a tap on a pin opens that weld, and no two labels overlap', async ({ page 
 		await expect(card.getByRole('heading', { level: 2 })).toHaveText(
 			new RegExp(`Weld ${number}\\b`)
 		);
-		await card.getByRole('button', { name: 'Close the joint card' }).tap();
+		await card.getByRole('button', { name: 'Close the weld card' }).tap();
 		await expect(card).toBeHidden();
 		// The closed card leaves the layout as it was: wait out the double-tap window.
 		await page.waitForTimeout(350);

@@ -52,7 +52,9 @@ test('the administrator changes a member’s role from the members list', async 
 	const role = page.getByLabel('Role of viewer@tacksheet.test');
 	await role.selectOption('turnover');
 	await role.locator('xpath=ancestor::form').getByRole('button', { name: 'Change' }).click();
-	await expect(page.getByText('viewer@tacksheet.test is now Turnover on LBM-20.')).toBeVisible();
+	await expect(
+		page.getByText('Role saved: viewer@tacksheet.test is now Turnover team on LBM-20.')
+	).toBeVisible();
 	await expect(page.getByLabel('Role of viewer@tacksheet.test')).toHaveValue('turnover');
 	await role.selectOption('viewer');
 	await role.locator('xpath=ancestor::form').getByRole('button', { name: 'Change' }).click();

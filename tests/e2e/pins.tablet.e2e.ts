@@ -97,12 +97,12 @@ for (const drawingNumber of ['LBM-20-ISO-1105', 'LBM-20-ISO-1103']) {
 		expect(Math.abs(placed.x - expected[0])).toBeLessThan(1);
 		expect(Math.abs(placed.y - expected[1])).toBeLessThan(1);
 
-		await card.getByLabel('Kind').selectOption('fillet');
+		await card.getByLabel('Joint type').selectOption('fillet');
 		await card.getByLabel('Required fillet size').fill('1/4');
 		await card.getByLabel('Material').fill('ASTM A105');
-		await card.getByRole('button', { name: 'Save joint' }).click();
+		await card.getByRole('button', { name: 'Save weld details' }).click();
 		await expect(card.getByText('Saved.')).toBeVisible();
-		await expect(card.getByText('Joint details changed')).toBeVisible();
+		await expect(card.getByText('Weld details changed')).toBeVisible();
 		// 1/4 in = 6.35 mm, shown in the other unit beside what was typed.
 		await expect(card.getByText(/= 6\.[34] mm/)).toBeVisible();
 
@@ -187,7 +187,11 @@ test('the document controller reviews pins carried to a new revision', async ({ 
 	await expect(page.getByTestId('joint-card').getByText('Position confirmed')).toBeVisible();
 	await expect.poll(flagged).toBe(before - 1);
 	const history = page.getByTestId('joint-card').getByText('Pin confirmed on the new revision');
-	await page.getByRole('button', { name: 'Close the joint card' }).click();
+	await page.getByRole('button', { name: 'Close the weld card' }).click();
 	await review.getByRole('button').first().click();
 	await expect(history).toHaveCount(0);
+	// The card takes focus when it opens, and Escape closes it.
+	await expect(page.getByTestId('joint-card')).toBeFocused();
+	await page.keyboard.press('Escape');
+	await expect(page.getByTestId('joint-card')).toHaveCount(0);
 });

@@ -24,7 +24,7 @@ test('the app loads in Barlow, with no errors in the console', async ({ page }) 
 	expect(loaded).toBeGreaterThan(0);
 
 	await page.locator('main a[href="/projects/1"]').click();
-	await expect(page.getByRole('heading', { name: 'Joints by state' })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Welds by state' })).toBeVisible();
 	await page.getByRole('link', { name: 'Drawings' }).click();
 	await expect(page.getByRole('cell', { name: 'LBM-20-ISO-1101', exact: true })).toBeVisible();
 

@@ -2,6 +2,7 @@ import crypto from 'node:crypto';
 import yauzl from 'yauzl';
 import { expect, test } from '@playwright/test';
 import { signInInBrowser } from './support';
+import { CAUTION } from '../../src/lib/caution';
 
 /** Every entry of a zip, read with yauzl (a zip reader from the registry, not our writer). */
 function unzip(file: string): Promise<Map<string, Buffer>> {
@@ -87,7 +88,18 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 	]);
 	const manifest = JSON.parse(entries.get('manifest.json')!.toString('utf8')) as {
 		files: { name: string; bytes: number; sha256: string }[];
+		notice: string;
 	};
+	// The caution travels with the verdicts: in the manifest and atop both CSV files.
+	expect(manifest.notice).toBe(CAUTION);
+	for (const name of ['weld-log.csv', 'inspections.csv'])
+		expect(
+			entries
+				.get(name)!
+				.toString('utf8')
+				.replace(/^\uFEFF/, ''),
+			name
+		).toMatch(/^"Notice: Verdicts are an aid\./);
 	expect(manifest.files.map((f) => f.name)).toEqual([...entries.keys()].slice(0, -1));
 	for (const file of manifest.files) {
 		const bytes = entries.get(file.name)!;

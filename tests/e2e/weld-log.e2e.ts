@@ -118,9 +118,11 @@ test('the log filters by state and drawing, sorts, pages, keeps its columns and 
 	]);
 	const text = fs.readFileSync((await download.path())!, 'utf8').replace(/^\uFEFF/, '');
 	const lines = text.split('\r\n').filter((line) => line !== '');
-	expect(lines[0].split(',')).toContain('Against verdict');
-	expect(lines.length - 1).toBe(filtered.total);
-	for (const line of lines.slice(1)) expect(line.startsWith('LBM-20-ISO-1102,')).toBe(true);
+	// The caution's line, the header, the rows.
+	expect(lines[0]).toMatch(/^"Notice: Verdicts are an aid\./);
+	expect(lines[1].split(',')).toContain('Against verdict');
+	expect(lines.length - 2).toBe(filtered.total);
+	for (const line of lines.slice(2)) expect(line.startsWith('LBM-20-ISO-1102,')).toBe(true);
 });
 
 test('the log flags decisions against the verdict and filters on them', async ({ page }) => {
@@ -174,10 +176,12 @@ test('the progress page draws its chart, and its figures agree with the summary'
 		)
 		.toBeGreaterThan(1000);
 
-	await expect(page.getByRole('columnheader', { name: `Of ${live} live joints` })).toBeVisible();
+	await expect(
+		page.getByRole('columnheader', { name: `Of ${live} welds (not void)` })
+	).toBeVisible();
 	const newest = page.locator('section[aria-labelledby="progress-figures"] tbody tr').first();
 	await expect(newest.locator('td').nth(2)).toHaveText(String(summary.counts.accepted));
 	await expect(
-		page.getByText(`${summary.counts.accepted} of ${live} live joints accepted`)
+		page.getByText(`${summary.counts.accepted} of ${live} welds (not void) accepted`)
 	).toBeVisible();
 });

@@ -219,7 +219,7 @@ describe('cutting out a joint', () => {
 		});
 		expect(stale.status).toBe(409);
 		expect(stale.body).toMatchObject({ field: 'version' });
-		expect(stale.body.error).toMatch(/Someone else changed joint/);
+		expect(stale.body.error).toMatch(/Someone else changed weld/);
 
 		const voidAnswer = await call(postCutOut, plainVoid.id, inspectorId, {
 			reason: 'Cut out',
@@ -335,7 +335,7 @@ describe('correcting an inspection through the API', () => {
 		});
 		expect(stale.status).toBe(409);
 		expect(stale.body).toMatchObject({ field: 'version' });
-		expect(stale.body.error).toMatch(/Someone else changed joint .* Reload it/);
+		expect(stale.body.error).toMatch(/Someone else changed weld .* Reload it/);
 
 		const noReason = await call(postInspection, joint.id, inspectorId, {
 			stage: 'visual',

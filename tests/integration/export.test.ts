@@ -25,6 +25,9 @@ import { STAMP, normaliseRotation, shownToUser } from '$lib/server/export/sheet-
 import * as mail from '$lib/server/mail';
 import type { ExportRequest } from '$lib/schemas/export';
 import { damagedPdf, passwordProtectedPdf } from '../fixtures/pdfs';
+import { csvNotice } from '../fixtures/csv';
+import { CAUTION, CAUTION_LEAD } from '$lib/caution';
+import { SUFFIX_KEY } from '$lib/server/export/cover';
 
 const require = createRequire(import.meta.url);
 const standardFontDataUrl =
@@ -177,6 +180,30 @@ describe('a turnover set of the demo project', () => {
 		}
 	});
 
+	it('carries the caution with its verdicts: manifest, cover, workbook notes, both CSV files', async () => {
+		const manifest = JSON.parse(entries.at(-1)!.bytes.toString('utf8')) as { notice: string };
+		expect(manifest.notice).toBe(CAUTION);
+		// The cover's first lines: its heading, then the caution, before the project's title.
+		const pdf = await getDocument({ data: new Uint8Array(entries[0].bytes), standardFontDataUrl })
+			.promise;
+		const page = await pdf.getPage(1);
+		const text = (await page.getTextContent()).items
+			.map((item) => ('str' in item ? item.str : ''))
+			.join(' ')
+			.replace(/\s+/g, ' ');
+		expect(text.indexOf(CAUTION_LEAD)).toBeGreaterThan(-1);
+		expect(text.indexOf(CAUTION_LEAD)).toBeLessThan(text.indexOf('LBM'));
+		expect(text).toContain('WELDS IN SCOPE AND KEY');
+		for (const key of SUFFIX_KEY) expect(text).toContain(key.replace(/\s+/g, ' '));
+		expect(text).not.toMatch(/\bpins?\b/i);
+		await pdf.destroy();
+		const workbook = new ExcelJS.Workbook();
+		await workbook.xlsx.load(entries[1].bytes as unknown as ArrayBuffer);
+		expect(workbook.getWorksheet('Notes')?.getRow(2).getCell(1).value).toBe(CAUTION);
+		for (const csv of [entries[2], entries[3]])
+			expect(csvNotice(csv.bytes.toString('utf8')), csv.name).toBe(`Notice: ${CAUTION}`);
+	});
+
 	it('stamps every weld number upright, within 2 points of its pin, on rotated sheets too', async () => {
 		const bytes = new Uint8Array(entries[0].bytes);
 		const pdf = await getDocument({ data: bytes.slice(), standardFontDataUrl }).promise;
@@ -289,8 +316,10 @@ describe('a turnover set of the demo project', () => {
 			.from(schema.joints)
 			.where(eq(schema.joints.projectId, lbm))
 			.all().length;
+		// Each CSV: the caution's line, the header, the rows.
 		const csv = entries[2].bytes.toString('utf8').trim().split('\r\n');
-		expect(csv.length - 1).toBe(jointCount);
+		expect(csv[0]).toContain(CAUTION);
+		expect(csv.length - 2).toBe(jointCount);
 		const inspectionCount = db
 			.select()
 			.from(schema.inspections)
@@ -298,8 +327,9 @@ describe('a turnover set of the demo project', () => {
 			.where(eq(schema.joints.projectId, lbm))
 			.all().length;
 		const lines = entries[3].bytes.toString('utf8').trim().split('\r\n');
-		expect(lines.length - 1).toBe(inspectionCount);
-		expect(lines[0]).toContain('Readings as typed');
+		expect(lines.length - 2).toBe(inspectionCount);
+		expect(lines[0]).toContain(CAUTION);
+		expect(lines[1]).toContain('Readings as typed');
 	});
 
 	it('gives the same files in the same order for unchanged data', async () => {

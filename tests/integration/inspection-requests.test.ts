@@ -154,6 +154,15 @@ describe('requesting an inspection', () => {
 				);
 			}
 		}
+		// The weld's own answer shows the open request (who, when, the note), so the card says
+		// "Requested" instead of offering the button again.
+		expect(joints.detail(a.id)!.openRequests).toEqual([
+			expect.objectContaining({
+				stage: 'visual',
+				note: 'Scaffold at EL+12',
+				requestedAt: answer.body.requests[0].requestedAt
+			})
+		]);
 		// A second request while one is open is refused.
 		const again = await post({ stage: 'visual', jointIds: [a.id] });
 		expect(again.status).toBe(409);

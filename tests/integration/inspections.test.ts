@@ -486,7 +486,7 @@ describe('corrections are new rows that supersede', () => {
 			expect.objectContaining({
 				status: 409,
 				field: 'supersedes',
-				message: expect.stringContaining(`corrected by #${correction.inspection.id}`)
+				message: expect.stringContaining(`corrected by record ${correction.inspection.id}`)
 			})
 		);
 		expect(() =>

@@ -5,6 +5,7 @@ import * as joints from '$lib/server/joints';
 import * as pins from '$lib/server/pins';
 import * as events from '$lib/server/events';
 import { deriveJointState } from '$lib/joint-state';
+import { CAUTION } from '$lib/caution';
 import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
 import { makeJoint } from '../fixtures/joints';
 
@@ -139,6 +140,8 @@ describe('moving, editing and voiding', () => {
 		expect(updated.requiredSizeMm).toBeCloseTo(7.9375, 6);
 		const detail = joints.detail(joint.id)!;
 		expect(detail.next).toBe('Fit-up inspection');
+		// The joint's answer carries its verdicts with the caution.
+		expect(detail.notice).toBe(CAUTION);
 		expect(detail.changes.at(-1)).toMatchObject({
 			action: 'update',
 			after: { material: 'ASTM A106 Gr B' }

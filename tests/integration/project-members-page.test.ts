@@ -57,7 +57,7 @@ describe('changing a role', () => {
 	it('stores the new role and says so in the role’s own words', async () => {
 		const answer = await post('role', { userId: members.viewer, role: 'turnover' });
 		expect(answer.status).toBe(200);
-		expect(answer.form.message?.text).toMatch(/is now Turnover on TP-\d+\.$/);
+		expect(answer.form.message?.text).toMatch(/^Role saved: .* is now Turnover team on TP-\d+\.$/);
 		expect(roleOf(members.viewer)).toBe('turnover');
 	});
 

@@ -150,8 +150,8 @@ describe('which inspection stands, everywhere', () => {
 		const mine = records.filter((r) => r[columns.indexOf('Weld no.')] === 'STD1');
 		const stands = (id: number) =>
 			mine.find((r) => r[columns.indexOf('Record id')] === String(id))![columns.indexOf('Stands')];
-		expect(stands(first.inspection.id)).toBe(`no: corrected by ${correction.inspection.id}`);
-		expect(stands(correction.inspection.id)).toBe('yes');
+		expect(stands(first.inspection.id)).toBe(`No: corrected by record ${correction.inspection.id}`);
+		expect(stands(correction.inspection.id)).toBe('Yes');
 		expect(mine).toHaveLength(3);
 	});
 });
@@ -179,7 +179,7 @@ describe('every write that changes a joint takes its version', () => {
 		expect(stale).toHaveLength(9);
 		for (const answer of stale) {
 			expect(answer.body.field).toBe('version');
-			expect(answer.body.error).toMatch(/changed joint STD2 since you opened it/);
+			expect(answer.body.error).toMatch(/changed weld STD2 since you opened it/);
 			expect(answer.body.error).not.toMatch(/\d+, yours/);
 		}
 		expect(inspections.list(joint.id)).toHaveLength(1);

@@ -9,7 +9,8 @@ import * as projects from '$lib/server/projects';
 import { filled, weldLogFilter, weldLogQuery } from '$lib/schemas/weld-log';
 import { JOINT_STATES, displayWeldNumber } from '$lib/joint-state';
 import type { WeldLogRow } from '$lib/weld-log';
-import { readCsv } from '../fixtures/csv';
+import { csvNotice, readCsv } from '../fixtures/csv';
+import { CAUTION, CAUTION_LEAD } from '$lib/caution';
 
 const j = schema.joints;
 const d = schema.drawings;
@@ -69,6 +70,8 @@ describe('weld log filters', () => {
 		expect(direct).toBeGreaterThan(10);
 		expect(page.total).toBe(direct);
 		expect(page.items).toHaveLength(direct);
+		// The answer's verdicts travel with the caution.
+		expect(page.notice).toBe(CAUTION);
 	});
 
 	it('agrees with a direct count for each filter and their combinations', () => {
@@ -149,7 +152,7 @@ describe('weld log filters', () => {
 		expect(new Set(only.items.map((row) => row.id))).toEqual(flagged);
 		const column = weldLog.COLUMNS.find((c) => c.id === 'againstVerdict')!;
 		expect(column.header).toBe('Against verdict');
-		expect(only.items.map((row) => column.value(row))).toEqual(only.items.map(() => 'yes'));
+		expect(only.items.map((row) => column.value(row))).toEqual(only.items.map(() => 'Yes'));
 		expect(weldLogQuery.safeParse({ againstVerdict: 'maybe' }).success).toBe(false);
 	});
 
@@ -246,7 +249,8 @@ describe('weld log files', () => {
 		const expected = [...weldLog.iterate(lbm, filter())];
 		expect(expected.length).toBe(directCount({ area: 'Area 20' }));
 		const bytes = await collect((s) => weldLog.writeCsv(weldLog.iterate(lbm, filter()), s));
-		const records = readCsv(bytes.toString('utf8').replace(/^\uFEFF/, ''));
+		const records = readCsv(bytes.toString('utf8'));
+		expect(csvNotice(bytes.toString('utf8'))).toBe(`Notice: ${CAUTION}`);
 		expect(records[0]).toEqual(weldLog.COLUMNS.map((c) => c.header));
 		expect(records.slice(1)).toEqual(
 			expected.map((row) => weldLog.COLUMNS.map((c) => String(c.value(row))))
@@ -256,7 +260,9 @@ describe('weld log files', () => {
 		const stream = new PassThrough();
 		stream.end(bytes.toString('utf8').replace(/^\uFEFF/, ''));
 		const sheet = await workbook.csv.read(stream);
-		expect(sheet.actualRowCount).toBe(expected.length + 1);
+		// The caution's line, the header, the rows.
+		expect(sheet.actualRowCount).toBe(expected.length + 2);
+		expect(sheet.getRow(1).getCell(1).value).toBe(`Notice: ${CAUTION}`);
 	});
 
 	it('writes an Excel workbook that opens, holding exactly the filtered rows', async () => {
@@ -274,6 +280,9 @@ describe('weld log files', () => {
 			`A1:${sheet.getColumn(weldLog.COLUMNS.length).letter}${expected.length + 1}`
 		);
 		expect(sheet.getColumn(1).width).toBe(18);
+		// A notes sheet carries the caution, and printed pages have it in their footer.
+		expect(workbook.getWorksheet('Notes')!.getRow(2).getCell(1).value).toBe(CAUTION);
+		expect(sheet.headerFooter.oddFooter).toContain(CAUTION_LEAD);
 		expected.forEach((row, n) => {
 			const values = (sheet.getRow(n + 2).values as unknown[]).slice(1);
 			const wanted = weldLog.COLUMNS.map((c) => c.value(row));

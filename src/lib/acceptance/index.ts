@@ -9,9 +9,10 @@ import { asmeB313CategoryD, asmeB313Normal, asmeB313SevereCyclic } from './sets/
 import { awsD11Cyclic, awsD11Static } from './sets/aws-d1-1';
 import { iso5817B, iso5817C, iso5817D } from './sets/iso-5817';
 import type { CriteriaSet } from './types';
+import { CAUTION } from '../caution';
 
-export const acceptanceNotice =
-	'The verdict is an aid: acceptance rests with a qualified inspector under the code, edition and contract in force.';
+/** The caution every verdict travels with (`src/lib/caution.ts`). */
+export const acceptanceNotice = CAUTION;
 
 /** Built-in sets, in the order a picker lists them. */
 export const criteriaSets: readonly CriteriaSet[] = [

@@ -17,7 +17,9 @@ export const revisionLabel = z
 export const newDrawingSchema = z.object({
 	number: text('A drawing number', 80, { min: 1, minError: 'Enter the drawing number.' }),
 	title: field('The title', 200),
-	kind: z.enum(DRAWING_KINDS, { error: 'Choose isometric, shop or structural.' }),
+	kind: z.enum(DRAWING_KINDS, {
+		error: 'Choose the drawing type: isometric, fabrication detail or structural.'
+	}),
 	revision: revisionLabel.default('0'),
 	note: note('The note', 500).default(''),
 	line: field('The line', 120),

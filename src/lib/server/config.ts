@@ -46,5 +46,7 @@ export const config = {
 	/** Longest time the check of one uploaded PDF may take before it is refused. */
 	uploadCheckSeconds: count(process.env.UPLOAD_CHECK_SECONDS, 120),
 	/** Days a finished turnover zip is kept; 0 keeps every zip until a person removes it. */
-	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30)
+	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30),
+	/** Hours an invitation's link works (a sign-in link asked for on the sign-in page: 30 minutes). */
+	inviteHours: count(process.env.INVITE_HOURS, 72)
 };

@@ -231,7 +231,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 		const reason = input.reason?.trim() || null;
 		if (correcting && !isReasonGiven(reason)) {
 			throw new DomainError(
-				`Say why inspection #${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
+				`Say why record ${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
 				400,
 				'reason'
 			);

@@ -3,6 +3,7 @@
  * derived from the records and cached in the same transaction as every change. Every write
  * names the version it was based on; a stale one is refused with 409.
  */
+import { CAUTION } from '$lib/caution';
 import { DomainError, refuse } from './errors';
 import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
@@ -223,8 +224,27 @@ export function detail(jointId: number) {
 	const replacedBy =
 		db.select({ id: j.id, number: j.number }).from(j).where(eq(j.replacesJointId, jointId)).get() ??
 		null;
+	// The hold points called on this weld and not yet inspected: who called them, when, why.
+	const openRequests = db
+		.select({
+			stage: schema.inspectionRequests.stage,
+			note: schema.inspectionRequests.note,
+			requestedAt: schema.inspectionRequests.requestedAt,
+			requestedBy: schema.users.name,
+			requestedByEmail: schema.users.email
+		})
+		.from(schema.inspectionRequests)
+		.leftJoin(schema.users, eq(schema.users.id, schema.inspectionRequests.requestedBy))
+		.where(
+			and(
+				eq(schema.inspectionRequests.jointId, jointId),
+				isNull(schema.inspectionRequests.closedAt)
+			)
+		)
+		.all();
 	return {
 		...joint,
+		openRequests,
 		// A project's own set travels with the joint, so the card's live verdict judges by it.
 		criteriaSet: criteriaSets.isBuiltIn(joint.criteriaSetId)
 			? null
@@ -243,7 +263,8 @@ export function detail(jointId: number) {
 				.map(({ pass, stamp, name }) => ({ pass, stamp, name }))
 		})),
 		inspections,
-		changes
+		changes,
+		notice: CAUTION
 	};
 }
 
@@ -313,7 +334,7 @@ export function place(input: PlacePin, userId: string) {
 		.get();
 	if (!revision) throw new DomainError('There is no such revision.', 404);
 	if (revision.status !== 'current')
-		throw new DomainError('Joints are placed on the current revision only.', 409);
+		throw new DomainError('Welds are placed on the current revision only.', 409);
 	if (input.pageIndex >= revision.pageCount)
 		throw new DomainError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
 	refuse(pinPointRefusal(pageBox(revision.id, input.pageIndex), input));
@@ -426,7 +447,7 @@ export function place(input: PlacePin, userId: string) {
 
 /** What every joint write answers when the joint changed after the caller read it. */
 export const STALE_JOINT = (number: string) =>
-	`Someone else changed joint ${number} since you opened it. Reload it and check before you save again.`;
+	`Someone else changed weld ${number} since you opened it. Reload it and check what changed before you save again.`;
 
 /**
  * The joint, read inside the write's transaction, refused unless it is still at the version
@@ -449,7 +470,7 @@ export function update(
 	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, changes.version);
 		if (joint.voidedAt)
-			throw new DomainError(`Joint ${joint.number} is void and can no longer change.`, 409);
+			throw new DomainError(`Weld ${joint.number} is void and can no longer change.`, 409);
 		const { version: _version, size, thickness, requiredSize, number, ...plain } = changes;
 		const lengths = lengthsOrThrow(
 			{ size, thickness, requiredSize },
@@ -531,7 +552,7 @@ function markVoid(
 export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
 	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, version);
-		if (joint.voidedAt) throw new DomainError(`Joint ${joint.number} is already void.`, 409);
+		if (joint.voidedAt) throw new DomainError(`Weld ${joint.number} is already void.`, 409);
 		const now = Date.now();
 		markVoid(tx, joint, reason, userId, now);
 		audit.record(
@@ -592,12 +613,12 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.get();
 		if (replaced)
 			throw new DomainError(
-				`Joint ${joint.number} has already been cut out and replaced by ${replaced.number}.`,
+				`Weld ${joint.number} has already been cut out and replaced by ${replaced.number}.`,
 				409
 			);
 		if (joint.voidedAt)
 			throw new DomainError(
-				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); a void joint is not cut out.`,
+				`Weld ${joint.number} is void (${joint.voidReason ?? 'voided'}); a void weld is not cut out.`,
 				409
 			);
 		const welded = tx
@@ -607,7 +628,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.get();
 		if (!welded)
 			throw new DomainError(
-				`Joint ${label} has not been welded, so there is nothing to cut out. Record a new fit-up, or void the joint if it no longer exists.`,
+				`Weld ${label} has not been welded, so there is nothing to cut out. Record a new fit-up, or void the weld if it no longer exists.`,
 				409
 			);
 		const pin = tx
@@ -618,7 +639,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.get();
 		if (!pin)
 			throw new DomainError(
-				`Joint ${joint.number} has no pin on the drawing's current revision; place or review it there first, so the new joint can be pinned at the same point.`,
+				`Weld ${joint.number} has no mark on the drawing's current revision; place or review it there first, so the new weld can be marked at the same point.`,
 				409
 			);
 

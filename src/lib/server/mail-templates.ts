@@ -3,6 +3,7 @@
  * with images blocked), each with an HTML and a text part.
  */
 import type { Message } from './mail';
+import { plural } from '$lib/words';
 
 function escape(text: string): string {
 	return text.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
@@ -44,20 +45,39 @@ ${
 
 export type LinkPurpose = 'sign-in' | 'invite' | 'reset';
 
+/** Who invited a person, to which project and in which role, as the invitation says it. */
+export interface InvitationFacts {
+	invitedBy: string | null;
+	project: string | null;
+	role: string | null;
+}
+
+/** "30 minutes", "72 hours", "1 hour". */
+function lifetime(minutes: number): string {
+	if (minutes % 60 !== 0) return plural(minutes, 'minute');
+	return plural(minutes / 60, 'hour');
+}
+
 export function signInLink(
 	to: string,
 	url: string,
 	purpose: LinkPurpose,
-	minutes: number
+	{ minutes, invitation }: { minutes: number; invitation?: InvitationFacts }
 ): Message {
-	const expiry = `The link works once and for ${minutes} minutes.`;
+	const expiry = `The link works once and for ${lifetime(minutes)}.`;
 	if (purpose === 'invite') {
+		const who = invitation?.invitedBy ?? 'An administrator';
+		const where = invitation?.project
+			? ` on ${invitation.project}${invitation.role ? `, as ${invitation.role}` : ''}`
+			: '';
 		return layout(
 			to,
-			'You are invited to Tacksheet',
+			invitation?.project
+				? `You are invited to ${invitation.project} on Tacksheet`
+				: 'You are invited to Tacksheet',
 			[
-				'An administrator has given you an account on Tacksheet, where the weld map, inspection records and weld log of your project are kept.',
-				`Use the button below to sign in for the first time, then choose a password under "Your account". ${expiry}`
+				`${who} has given you an account on Tacksheet${where}. Tacksheet keeps the weld map, inspection records and weld log of the project.`,
+				`Use the button below to sign in for the first time; Tacksheet then asks you to choose a password. ${expiry}`
 			],
 			{ label: 'Sign in to Tacksheet', url }
 		);

@@ -1,13 +1,14 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
 import { DomainError } from './errors';
 import crypto from 'node:crypto';
-import { and, asc, count, eq, isNull, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gt, isNull, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import { config } from './config';
 import { newPassword } from '$lib/schemas/account';
 import * as audit from './audit';
 import { hashPassword, verifyPassword } from './passwords';
-import type { Principal, ProjectRole } from '$lib/permissions';
+import { ROLE_LABELS, type Principal, type ProjectRole } from '$lib/permissions';
+import type { InvitationFacts } from './mail-templates';
 
 /** Verified against when the address is unknown, so both paths take the same time. */
 let decoyHash: Promise<string> | undefined;
@@ -161,6 +162,58 @@ export function invite(
 		}
 		return user;
 	});
+}
+
+/**
+ * An invitation's or reset's link lives `hours` from now: the open links Auth.js stored for
+ * this address get the later expiry (a link already used is gone from the table).
+ */
+export function extendLinks(email: string, hours: number, at = Date.now()): number {
+	return db
+		.update(schema.verificationTokens)
+		.set({ expires: new Date(at + hours * 3_600_000) })
+		.where(
+			and(
+				eq(schema.verificationTokens.identifier, email),
+				gt(schema.verificationTokens.expires, new Date(at))
+			)
+		)
+		.run().changes;
+}
+
+/** Who invited `email`, to which project and as what, for the invitation's mail. */
+export function invitationFacts(email: string): InvitationFacts {
+	const user = byEmail(email);
+	if (!user) return { invitedBy: null, project: null, role: null };
+	const invite = db
+		.select({ by: schema.users.name, byEmail: schema.users.email })
+		.from(schema.auditEvents)
+		.leftJoin(schema.users, eq(schema.users.id, schema.auditEvents.userId))
+		.where(
+			and(
+				eq(schema.auditEvents.action, 'invite'),
+				eq(schema.auditEvents.entity, 'user'),
+				eq(schema.auditEvents.entityId, user.id)
+			)
+		)
+		.orderBy(desc(schema.auditEvents.id))
+		.get();
+	const membership = db
+		.select({
+			code: schema.projects.code,
+			name: schema.projects.name,
+			role: schema.memberships.role
+		})
+		.from(schema.memberships)
+		.innerJoin(schema.projects, eq(schema.projects.id, schema.memberships.projectId))
+		.where(eq(schema.memberships.userId, user.id))
+		.orderBy(asc(schema.projects.code))
+		.get();
+	return {
+		invitedBy: invite ? (invite.by ?? invite.byEmail ?? null) : null,
+		project: membership ? `${membership.code} ${membership.name}` : null,
+		role: membership ? ROLE_LABELS[membership.role] : null
+	};
 }
 
 export function setDisabled(userId: string, disabled: boolean, actorId: string) {

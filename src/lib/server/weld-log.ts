@@ -21,6 +21,7 @@ import { displayWeldNumber, effectiveInspections, type Decision } from '$lib/joi
 import { standingSql } from './inspections';
 import * as counting from './state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
+import { CAUTION, CSV_CAUTION_CELL } from '$lib/caution';
 import type { WeldLogFilter, WeldLogQuery } from '$lib/schemas/weld-log';
 
 export { COLUMNS, type WeldLogRow };
@@ -304,7 +305,8 @@ export function list(projectId: number, query: WeldLogQuery) {
 		items: rowsOf(ids),
 		total: countOf(projectId, query),
 		page: query.page,
-		pageSize: query.pageSize
+		pageSize: query.pageSize,
+		notice: CAUTION
 	};
 }
 
@@ -330,8 +332,12 @@ export async function writeCsv(
 	writable: Writable,
 	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS
 ): Promise<void> {
-	// A byte-order mark, so a spreadsheet opened by double-click reads the file as UTF-8.
-	await write(writable, '\uFEFF' + csvLine(columns.map((c) => c.header)));
+	// A byte-order mark, so a spreadsheet opened by double-click reads the file as UTF-8; then
+	// the caution on a line of its own above the header row.
+	await write(
+		writable,
+		'\uFEFF' + csvLine([CSV_CAUTION_CELL]) + csvLine(columns.map((c) => c.header))
+	);
 	let batch: (string | number)[][] = [];
 	for (const row of rows) {
 		batch.push(columns.map((c) => c.value(row)));
@@ -386,7 +392,11 @@ export async function writeXlsx(
 		useSharedStrings: false,
 		...(fixedDate ? { created: fixedDate, modified: fixedDate } : {})
 	});
-	const sheet = workbook.addWorksheet('Weld log', { views: [{ state: 'frozen', ySplit: 1 }] });
+	const sheet = workbook.addWorksheet('Weld log', {
+		views: [{ state: 'frozen', ySplit: 1 }],
+		// Printed pages carry the caution too.
+		headerFooter: { oddFooter: `&L&8${CAUTION.replaceAll('&', '&&')}`, evenFooter: '' }
+	});
 	sheet.columns = columns.map((c) => ({
 		header: c.header,
 		width: c.width ?? Math.max(10, c.header.length + 2)
@@ -402,7 +412,28 @@ export async function writeXlsx(
 	// Filter buttons on the header over every row: the first thing a QC manager reaches for.
 	sheet.autoFilter = { from: { row: 1, column: 1 }, to: { row: n + 1, column: columns.length } };
 	sheet.commit();
+	notesSheet(workbook);
 	await workbook.commit();
+}
+
+/** The workbook's Notes sheet: the caution, and how to read the log. */
+function notesSheet(workbook: ExcelJS.stream.xlsx.WorkbookWriter): void {
+	const notes = workbook.addWorksheet('Notes');
+	notes.columns = [{ header: 'Notes', width: 110 }];
+	notes.getRow(1).font = { bold: true };
+	notes.getRow(1).commit();
+	const lines = [
+		CAUTION,
+		'Fit-up, Visual and NDE give the standing result of each stage: Accept or Reject; empty where none is recorded.',
+		'Against verdict: Yes where the inspector decided against the verdict the criteria gave.',
+		'Dates are UTC days (YYYY-MM-DD).'
+	];
+	lines.forEach((line, n) => {
+		const row = notes.addRow([line]);
+		if (n === 0) row.font = { bold: true };
+		row.commit();
+	});
+	notes.commit();
 }
 
 /** A file name safe on every system: `LBM-20-weld-log-2026-12-02.csv`. */

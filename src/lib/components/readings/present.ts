@@ -33,8 +33,8 @@ import {
 	type UnitSystem
 } from '$lib/units';
 
-export const verdictCaution =
-	'The verdict is an aid; acceptance rests with a qualified inspector under the code, edition and contract in force.';
+/** The caution beside every verdict, worded once in `$lib/caution`. */
+export { CAUTION as verdictCaution } from '$lib/caution';
 
 export interface SegmentedOption<V> {
 	value: V;

@@ -4,6 +4,7 @@ import { JOINT_STATES, STATE_LOOKS } from '$lib/joint-state';
 import type { StateCounts } from '$lib/state-counts';
 import { INK, MUTED, REVIEW_RING, RULE, SUPERSEDED, drawGlyph, type Fonts } from './pdf-marks';
 import type { SheetBox } from './sheet-frame';
+import { CAUTION } from '$lib/caution';
 
 export interface CoverFacts {
 	projectCode: string;
@@ -51,7 +52,7 @@ function indexTable(
 	fonts: Fonts
 ) {
 	const cols = [0, 0.42, 0.5, 0.66, 0.88].map((f) => left + f * width);
-	const heads = ['Drawing', 'Rev', 'Status', 'Sheets · pins', 'Page'];
+	const heads = ['Drawing', 'Rev', 'Status', 'Sheets · weld marks', 'Page'];
 	heads.forEach((h, i) =>
 		page.drawText(h.toUpperCase(), {
 			x: cols[i],
@@ -96,6 +97,30 @@ function indexTable(
 	}
 }
 
+/** What a weld number's suffixes mean, printed under the key. */
+export const SUFFIX_KEY = [
+	'The weld number stands above its mark. What follows the number:',
+	'-R1, -R2 …  repair cycle: the weld repaired once, twice …',
+	'N (12N)  the weld that replaces weld 12, which was cut out; 12N2 replaces 12N',
+	'A letter (12A, 12B)  a weld added after numbering, between 12 and 13',
+	'A voided weld keeps its number; no number is used twice.'
+] as const;
+
+/** Words laid into lines no wider than `width` at `size`. */
+function wrapText(text: string, font: Fonts['regular'], size: number, width: number): string[] {
+	const lines: string[] = [];
+	let line = '';
+	for (const word of text.split(' ')) {
+		const next = line ? `${line} ${word}` : word;
+		if (line && font.widthOfTextAtSize(next, size) > width) {
+			lines.push(line);
+			line = word;
+		} else line = next;
+	}
+	if (line) lines.push(line);
+	return lines;
+}
+
 export function drawCover(
 	pages: PDFPage[],
 	facts: CoverFacts,
@@ -112,7 +137,13 @@ export function drawCover(
 		font: fonts.semibold,
 		color: MUTED
 	});
-	y -= 26;
+	// The caution comes first: every verdict in this set travels with it.
+	y -= 13;
+	for (const line of wrapText(CAUTION, fonts.semibold, 7.5, COVER.width / 2 - m - 10)) {
+		first.drawText(line, { x: m, y, size: 7.5, font: fonts.semibold, color: INK });
+		y -= 10;
+	}
+	y -= 14;
 	// The title keeps to the left half, which the index leaves free: long names step down in size.
 	const title = `${facts.projectCode} ${facts.projectName}`.slice(0, 90);
 	const room = COVER.width / 2 - m - 10;
@@ -140,7 +171,7 @@ export function drawCover(
 	}
 
 	y -= 10;
-	first.drawText('JOINTS IN SCOPE AND LEGEND', {
+	first.drawText('WELDS IN SCOPE AND KEY', {
 		x: m,
 		y,
 		size: 7,
@@ -171,21 +202,20 @@ export function drawCover(
 		borderWidth: 1.6,
 		borderDashArray: [3, 2]
 	});
-	first.drawText('Dashed ring: pin carried to a new revision, position still to be reviewed', {
-		x: m + 28,
-		y,
-		size: 8,
-		font: fonts.regular,
-		color: INK
-	});
-	y -= 14;
-	first.drawText('The weld number stands above its mark; -R1, -R2 … name the repair cycle.', {
-		x: m + 28,
-		y,
-		size: 8,
-		font: fonts.regular,
-		color: INK
-	});
+	first.drawText(
+		'Dashed ring: weld mark carried to a new revision, its place still to be checked',
+		{
+			x: m + 28,
+			y,
+			size: 8,
+			font: fonts.regular,
+			color: INK
+		}
+	);
+	for (const line of SUFFIX_KEY) {
+		y -= 12;
+		first.drawText(line, { x: m + 28, y, size: 8, font: fonts.regular, color: INK });
+	}
 
 	y -= 22;
 	for (const warning of facts.warnings) {
@@ -198,10 +228,6 @@ export function drawCover(
 		});
 		y -= 13;
 	}
-	first.drawText(
-		'Verdicts in Tacksheet are an aid. Acceptance rests with a qualified inspector under the code, edition and contract in force.',
-		{ x: m, y: m + 14, size: 7.5, font: fonts.regular, color: MUTED }
-	);
 
 	const indexLeft = COVER.width / 2 + 10;
 	const indexWidth = COVER.width - m - indexLeft;

@@ -12,6 +12,8 @@
  * SHA-256, so two sets of the same data can be told apart by their record and recognised as
  * the same by their hash.
  */
+import { CAUTION } from '$lib/caution';
+import { plural } from '$lib/words';
 import fs from 'node:fs';
 import fsp from 'node:fs/promises';
 import path from 'node:path';
@@ -63,7 +65,7 @@ function sha256(bytes: Uint8Array): string {
 function reportLine(entry: IndexEntry): string {
 	const name = `${entry.drawing} rev ${entry.revision}${entry.status === 'superseded' ? ' (superseded)' : ''}`;
 	if (entry.problem) return `${name}: not included, ${entry.problem}.`;
-	return `${name}: ${entry.sheets} sheet${entry.sheets === 1 ? '' : 's'}, ${entry.pins} pin${entry.pins === 1 ? '' : 's'} stamped.`;
+	return `${name}: ${plural(entry.sheets, 'sheet')}, ${plural(entry.pins, 'weld mark')} stamped.`;
 }
 
 function asOfTime(ms: number | null): string | null {
@@ -87,16 +89,14 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	const scopeText = describeScope(job.request.scope, drawings.length);
 	const options = [
 		job.request.includeSuperseded ? 'superseded revisions included' : 'current revisions only',
-		job.request.acceptedOnly ? 'accepted joints only' : 'joints in every state'
+		job.request.acceptedOnly ? 'accepted welds only' : 'welds in every state'
 	];
 	const warnings = [
 		...(facts.notAccepted > 0
-			? [`${facts.notAccepted} joint${facts.notAccepted === 1 ? ' is' : 's are'} not accepted yet.`]
+			? [`${plural(facts.notAccepted, 'weld is', 'welds are')} not accepted yet.`]
 			: []),
 		...(facts.pinsToReview > 0
-			? [
-					`${facts.pinsToReview} pin${facts.pinsToReview === 1 ? '' : 's'} still to be reviewed after a new revision.`
-				]
+			? [`${plural(facts.pinsToReview, 'weld mark')} still to be checked after a new revision.`]
 			: [])
 	];
 	const who = job.requestedBy.name
@@ -158,6 +158,7 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	const problems = set.entries.filter((e) => e.problem);
 	const manifest = {
 		format: 'tacksheet-turnover-set/1',
+		notice: CAUTION,
 		project: { code: project.code, name: project.name, client: project.client },
 		scope: {
 			description: scopeText,

@@ -12,6 +12,16 @@ import { correctionsOf, displayWeldNumber } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
 import { withEntryDates } from './zip-dates';
+import { CSV_CAUTION_CELL } from '$lib/caution';
+import { DECISION_LABELS, STAGE_LABELS, VERDICT_LABELS } from '$lib/domain';
+import { isReadingId, readingDefinitions } from '$lib/acceptance';
+import { criteriaSetTitle, yesNo } from '$lib/words';
+import * as criteriaSets from '../criteria-sets';
+
+/** A reading as the screens name it ("Root opening"); an id the engine no longer knows as stored. */
+function readingName(id: string): string {
+	return isReadingId(id) ? readingDefinitions[id].label : id;
+}
 
 /** Collects what a writer streams, for a zip entry whose hash goes into the manifest. */
 export async function collect(write: (writable: Writable) => Promise<void>): Promise<Buffer> {
@@ -88,7 +98,7 @@ const HEADERS = [
 
 function shownValue(value: number | boolean | null, unit: string | null): string {
 	if (value === null) return '';
-	if (typeof value === 'boolean') return value ? 'yes' : 'no';
+	if (typeof value === 'boolean') return yesNo(value);
 	const rounded = Math.round(value * 1000) / 1000;
 	return unit === 'deg' ? `${rounded}°` : unit === 'mm' ? `${rounded} mm` : String(rounded);
 }
@@ -102,7 +112,7 @@ const CHUNK = 2000;
 export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
 	const i = schema.inspections;
 	const j = schema.joints;
-	const lines: string[] = [csvLine(HEADERS)];
+	const lines: string[] = [csvLine([CSV_CAUTION_CELL]), csvLine(HEADERS)];
 	const ids = drawings.map((d) => d.id);
 	const numberOf = new Map(drawings.map((d) => [d.id, d.number]));
 	for (let start = 0; start < ids.length; start += CHUNK) {
@@ -110,6 +120,7 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 			.select({
 				id: i.id,
 				drawingId: j.drawingId,
+				projectId: j.projectId,
 				number: j.number,
 				sortKey: j.sortKey,
 				stage: i.stage,
@@ -153,32 +164,39 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 		const correctedBy = correctionsOf(rows);
 		for (const row of rows) {
 			const correction = correctedBy.get(row.id);
+			const set = row.criteriaSetId
+				? criteriaSets.resolve(
+						row.projectId,
+						row.criteriaSetId,
+						row.criteriaSetVersion ?? undefined
+					)
+				: undefined;
 			lines.push(
 				csvLine([
 					numberOf.get(row.drawingId) ?? '',
 					displayWeldNumber(row.number, row.repairCycle),
-					row.stage,
+					STAGE_LABELS[row.stage].title,
 					row.method ?? '',
 					row.repairCycle,
 					row.inspector ? `${row.inspector} <${row.inspectorEmail}>` : row.inspectorEmail,
 					new Date(row.inspectedAt).toISOString(),
-					row.readings.map((r) => `${r.id}: ${r.text}`).join('; '),
+					row.readings.map((r) => `${readingName(r.id)}: ${r.text}`).join('; '),
 					row.readings
 						.filter((r) => r.value !== null)
-						.map((r) => `${r.id}: ${shownValue(r.value, r.unit)}`)
+						.map((r) => `${readingName(r.id)}: ${shownValue(r.value, r.unit)}`)
 						.join('; '),
-					row.verdict ?? '',
-					row.decision,
-					row.againstVerdict ? 'yes' : '',
+					row.verdict ? VERDICT_LABELS[row.verdict] : '',
+					DECISION_LABELS[row.decision],
+					yesNo(row.againstVerdict),
 					row.reason ?? '',
 					row.reportNo ?? '',
 					row.technician ?? '',
-					row.criteriaSetId
-						? `${row.criteriaSetId}${row.criteriaSetVersion != null ? ` v${row.criteriaSetVersion}` : ''}`
-						: '',
+					set
+						? criteriaSetTitle({ ...set, version: row.criteriaSetVersion ?? set.version })
+						: (row.criteriaSetId ?? ''),
 					row.id,
 					row.supersedesId ?? '',
-					correction ? `no: corrected by ${correction.id}` : 'yes'
+					correction ? `No: corrected by record ${correction.id}` : 'Yes'
 				])
 			);
 		}

@@ -71,7 +71,7 @@ export const actions = {
 		const found = memberOf(project.id, form.data.userId);
 		if ('problem' in found) return say(form, { tone: 'error', text: found.problem }, 404);
 		users.setRole(project.id, form.data.userId, form.data.role, locals.user!.id);
-		const text = `${found.member.email} is now ${ROLE_LABELS[form.data.role]} on ${project.code}.`;
+		const text = `Role saved: ${found.member.email} is now ${ROLE_LABELS[form.data.role]} on ${project.code}.`;
 		return say(form, { tone: 'ok', text });
 	},
 	remove: async ({ request, params, locals }) => {

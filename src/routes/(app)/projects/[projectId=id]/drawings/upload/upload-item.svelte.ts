@@ -1,5 +1,7 @@
 /** One dropped file on its way to the register: what it will become, and how its upload goes. */
 import { proposeFromFileName } from '$lib/drawing-names';
+import { statusText } from '$lib/api-client';
+import { plural } from '$lib/words';
 
 export interface ExistingDrawing {
 	id: number;
@@ -99,6 +101,7 @@ export class UploadItem {
 					error?: string;
 					drawing?: { id: number };
 					revision?: { id: number; label: string };
+					pinsCarried?: number;
 				} | null;
 				if (xhr.status === 201 && body?.revision) {
 					this.status = 'done';
@@ -106,11 +109,15 @@ export class UploadItem {
 					const drawingId = body.drawing?.id ?? match!.id;
 					this.resultHref = `/projects/${projectId}/drawings/${drawingId}`;
 					this.message = match
-						? `Revision ${body.revision.label} is now current; the previous one is superseded.`
+						? `Revision ${body.revision.label} is now current; the previous one is superseded${
+								body.pinsCarried !== undefined
+									? `; ${plural(body.pinsCarried, 'weld mark')} carried to it`
+									: ''
+							}.`
 						: `Registered with revision ${body.revision.label}.`;
 				} else {
 					this.status = 'failed';
-					this.message = body?.error ?? `The server answered ${xhr.status}. Try again.`;
+					this.message = body?.error ?? statusText(xhr.status);
 				}
 				resolve();
 			};
