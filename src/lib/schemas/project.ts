@@ -1,11 +1,6 @@
 /** A project's settings, as the administrator edits them. */
 import { z } from 'zod';
 
-const percent = z.coerce
-	.number()
-	.min(0, { error: 'At least 0 %.' })
-	.max(100, { error: 'At most 100 %.' });
-
 export const projectSettingsSchema = z.object({
 	name: z.string().trim().min(1, { error: 'Name the project.' }).max(160),
 	client: z.string().trim().max(160).default(''),
@@ -28,9 +23,5 @@ export const projectSettingsSchema = z.object({
 		.max(8)
 		.regex(/^[A-Za-z0-9-]*$/, { error: 'Letters, digits and "-" only.' })
 		.default('FW-'),
-	sequence: z.enum(['drawing', 'line']).default('drawing'),
-	lotGroupBy: z.enum(['line', 'system', 'drawing', 'week']).default('line'),
-	rtPercent: percent.default(5),
-	utPercent: percent.default(0),
-	everyWelder: z.boolean().default(true)
+	sequence: z.enum(['drawing', 'line']).default('drawing')
 });

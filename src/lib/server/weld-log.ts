@@ -16,7 +16,12 @@ import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizz
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
 import { stateRank } from './db/schema';
-import { displayWeldNumber, type Decision, type JointState } from '$lib/joint-state';
+import {
+	COMPLETE_STATES,
+	displayWeldNumber,
+	type Decision,
+	type JointState
+} from '$lib/joint-state';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
 import type { WeldLogFilter, WeldLogQuery } from '$lib/schemas/weld-log';
@@ -502,7 +507,7 @@ export function progress(projectId: number, area?: string) {
 	const perDay = db
 		.select({ day, n: count() })
 		.from(j)
-		.where(and(scope, eq(j.state, 'accepted')))
+		.where(and(scope, inArray(j.state, [...COMPLETE_STATES])))
 		.groupBy(day)
 		.orderBy(day)
 		.all();

@@ -255,6 +255,10 @@ const NOT_READY: Record<Exclude<JointState, 'ready_to_weld' | 'repair'>, string>
 		'is already welded and waits for its visual inspection; a repair weld follows a reject only.',
 	awaiting_nde:
 		'is already welded and waits for NDE; a repair weld follows a rejected result only.',
+	awaiting_lot:
+		"is already welded and waits on its NDE lot's sample; a repair weld follows a rejected result only.",
+	accepted_by_lot:
+		"is accepted by its NDE lot's sample: nothing more is welded on it. A cut-out becomes a new joint.",
 	accepted: 'is accepted: nothing more is welded on it. A cut-out becomes a new joint.',
 	void: 'is void: nothing more is recorded on it.'
 };

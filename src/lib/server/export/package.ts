@@ -23,6 +23,7 @@ import { db, schema } from '../db';
 import * as storage from '../storage';
 import * as joints from '../joints';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
+import { isComplete } from '$lib/joint-state';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
 import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
 import { preview, recordsAsOf, resolve } from './scope';
@@ -119,7 +120,7 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		pinsOf: (revisionId) =>
 			joints
 				.pinsOf(revisionId)
-				.filter((pin) => !job.request.acceptedOnly || pin.state === 'accepted')
+				.filter((pin) => !job.request.acceptedOnly || isComplete(pin.state))
 				.map((pin) => ({
 					pageIndex: pin.pageIndex,
 					x: pin.x,
