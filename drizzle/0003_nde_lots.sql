@@ -41,6 +41,7 @@ CREATE TABLE `nde_lots` (
 	`label` text NOT NULL,
 	`every_welder` integer DEFAULT true NOT NULL,
 	`status` text DEFAULT 'open' NOT NULL,
+	`stage` text DEFAULT 'open' NOT NULL,
 	`created_at` integer DEFAULT (cast(unixepoch('subsec') * 1000 as integer)) NOT NULL,
 	`closed_by` text,
 	`closed_at` integer,
@@ -51,6 +52,7 @@ CREATE TABLE `nde_lots` (
 --> statement-breakpoint
 CREATE UNIQUE INDEX `nde_lots_key` ON `nde_lots` (`project_id`,`method`,`percent`,`kinds`,`group_by`,`group_key`,`seq`);--> statement-breakpoint
 CREATE INDEX `nde_lots_project_status` ON `nde_lots` (`project_id`,`status`,`label`);--> statement-breakpoint
+CREATE INDEX `nde_lots_project_stage` ON `nde_lots` (`project_id`,`stage`,`label`);--> statement-breakpoint
 CREATE TABLE `nde_request_items` (
 	`request_id` integer NOT NULL,
 	`selection_id` integer NOT NULL,
@@ -117,6 +119,7 @@ ALTER TABLE `nde_selections` ADD `level` integer DEFAULT 0 NOT NULL;--> statemen
 ALTER TABLE `nde_selections` ADD `welder_id` integer REFERENCES welders(id);--> statement-breakpoint
 ALTER TABLE `nde_selections` ADD `tracer_of_id` integer REFERENCES nde_selections(id);--> statement-breakpoint
 ALTER TABLE `nde_selections` ADD `replaces_id` integer REFERENCES nde_selections(id);--> statement-breakpoint
+ALTER TABLE `nde_selections` ADD `carried` integer DEFAULT false NOT NULL;--> statement-breakpoint
 ALTER TABLE `nde_selections` ADD `note` text;--> statement-breakpoint
 ALTER TABLE `nde_selections` ADD `cancelled_by` text REFERENCES users(id);--> statement-breakpoint
 CREATE INDEX `nde_selections_lot` ON `nde_selections` (`lot_id`,`cancelled_at`);

@@ -178,13 +178,16 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			data: { scope: { all: true } }
 		});
 		const exportId = ((await started.json()) as { id: number }).id;
+		const lot = (await (await admin.get(`/api/projects/${projectId}/nde/lots?pageSize=1`)).json())
+			.items[0];
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
 			revisionId: String(first.currentRevision.id),
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
-			exportId: String(exportId)
+			exportId: String(exportId),
+			lotId: String(lot.id)
 		};
 	}
 	await admin.dispose();

@@ -360,6 +360,14 @@ export function fullWelders(selections: readonly LotSelection[]): Set<number> {
  * weld is accepted by the sample (341.3.4(b), (d)); otherwise it waits.
  */
 export function memberStanding(member: LotMember, input: StandingInput): MemberStanding {
+	return standings(input)(member);
+}
+
+/**
+ * `memberStanding` for many welds of one lot: the lot is read once, and each welder's
+ * rounds are judged once however many welds they made.
+ */
+export function standings(input: StandingInput): (member: LotMember) => MemberStanding {
 	const byJoint = new Map(input.members.map((m) => [m.jointId, m]));
 	// A weld voided before its examination (deleted by a revision) drops out of the sample.
 	const selections = input.selections.filter(
@@ -369,27 +377,44 @@ export function memberStanding(member: LotMember, input: StandingInput): MemberS
 	const rounds = [
 		...new Map(selections.filter(isSample).map((s) => [s.roundId, s.roundAt] as const)).entries()
 	].sort((a, b) => a[1] - b[1]);
-	if (member.welders.length === 0) return 'pending';
-	for (const welder of member.welders) {
-		if (full.has(welder)) return 'pending';
-		const bears = (s: LotSelection) =>
-			s.welderId === welder || (byJoint.get(s.jointId)?.welders.includes(welder) ?? false);
-		const round = rounds.find(
-			([id, at]) =>
-				at >= member.weldedAt && selections.some((s) => s.roundId === id && isSample(s) && bears(s))
-		);
-		if (!round) return 'pending';
-		const chain = selections.filter((s) => s.roundId === round[0] && bears(s));
-		if (chain.some((s) => s.result === null)) return 'pending';
-		for (const s of chain) {
-			if (s.result !== 'reject' || s.carried || s.reason === 'full' || s.reason === 'required')
-				continue;
-			if (!byJoint.get(s.jointId)?.welders.includes(welder)) continue;
-			const call = input.calls.find((c) => c.selectionId === s.id && c.welderId === welder);
-			if (!call || call.short > 0) return 'pending';
+	const callOf = new Map(input.calls.map((c) => [`${c.selectionId}/${c.welderId}`, c]));
+	const weldersOf = (s: LotSelection) => byJoint.get(s.jointId)?.welders ?? [];
+	const bears = (s: LotSelection, welder: number) =>
+		s.welderId === welder || weldersOf(s).includes(welder);
+
+	/** The rounds that sampled a welder's work, oldest first, each judged once. */
+	const judged = new Map<number, { at: number; passed: boolean }[]>();
+	function roundsOf(welder: number) {
+		let list = judged.get(welder);
+		if (list) return list;
+		list = [];
+		for (const [roundId, at] of rounds) {
+			const chain = selections.filter((s) => s.roundId === roundId && bears(s, welder));
+			if (!chain.some((s) => isSample(s) && bears(s, welder))) continue;
+			let passed = chain.every((s) => s.result !== null);
+			for (const s of chain) {
+				if (!passed) break;
+				if (s.result !== 'reject' || s.carried || s.reason === 'full' || s.reason === 'required')
+					continue;
+				if (!weldersOf(s).includes(welder)) continue;
+				const call = callOf.get(`${s.id}/${welder}`);
+				if (!call || call.short > 0) passed = false;
+			}
+			list.push({ at, passed });
 		}
+		judged.set(welder, list);
+		return list;
 	}
-	return 'passed';
+
+	return (member) => {
+		if (member.welders.length === 0) return 'pending';
+		for (const welder of member.welders) {
+			if (full.has(welder)) return 'pending';
+			const round = roundsOf(welder).find((r) => r.at >= member.weldedAt);
+			if (!round?.passed) return 'pending';
+		}
+		return 'passed';
+	};
 }
 
 export type LotStage = 'open' | 'sampled' | 'progressive' | 'full' | 'closed';
@@ -434,7 +459,7 @@ export interface LotSummary {
 	sampleMet: boolean;
 	/** …and every selected weld has a result, no tracer is open or short. */
 	complete: boolean;
-	/** Welds not selected that the sample has accepted, and those still waiting on it. */
+	/** Welds not selected and visually accepted that the sample has accepted, and those still waiting on it. */
 	acceptedBySample: number;
 	waitingOnSample: number;
 	stage: LotStage;
@@ -461,12 +486,11 @@ export function summarizeLot(
 
 	let acceptedBySample = 0;
 	let waitingOnSample = 0;
-	const standing = new Map<number, MemberStanding>();
+	const standingOf = standings(input);
 	for (const m of members) {
-		if (selectedIds.has(m.jointId)) continue;
-		const s = memberStanding(m, input);
-		standing.set(m.jointId, s);
-		if (s === 'passed') acceptedBySample++;
+		// Welds not selected and ready (visually accepted): the sample accepts them, or not yet.
+		if (selectedIds.has(m.jointId) || !m.candidate) continue;
+		if (standingOf(m) === 'passed') acceptedBySample++;
 		else waitingOnSample++;
 	}
 	const last = lastSampled(members, current);

@@ -10,6 +10,7 @@ import * as audit from './audit';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
+import * as ndeLots from './nde';
 import { JointError, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
@@ -444,6 +445,14 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 		// The hold point the foreman called for this stage is released by this very record,
 		// in the same transaction, so the board never shows one without the other.
 		inspectionRequests.closeByInspection(tx, jointId, input.stage, inspection.id, now);
+		// NDE lots: the report's indications, the request it answers, the tracers a reject calls.
+		const nde = ndeLots.afterResult(tx, {
+			inspection,
+			joint,
+			extras: { indications: input.indications, welders: input.welders },
+			units: projectUnits(tx, joint.projectId),
+			userId: inspectorId
+		});
 		audit.record(
 			{
 				action: correcting ? 'inspection_correct' : 'inspection',
@@ -475,6 +484,6 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			drawingId: joint.drawingId,
 			by: inspectorId
 		});
-		return { inspection, joint: jointSummary(row(jointId, tx)!) };
+		return { inspection, joint: jointSummary(row(jointId, tx)!), nde };
 	});
 }

@@ -8,6 +8,8 @@ import { db, schema, type Db } from './db';
 import * as audit from './audit';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
+import { lotSample } from './nde/standing';
+import * as nde from './nde';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -59,6 +61,8 @@ export function stateInput(jointId: number, tx: Reader = db) {
 	return {
 		voided: joint.voidedAt != null,
 		ndeMethods: [...methods],
+		// NDE lots: a weld not itself selected stands or falls with its lot's sample.
+		lotSample: lotSample(tx, jointId),
 		welds: tx
 			.select({ repairCycle: schema.welds.repairCycle })
 			.from(schema.welds)
@@ -799,6 +803,8 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.returning()
 			.get();
 		refreshState(replacement.id, tx, now);
+		// NDE lots: the replacement takes over the cut-out weld's lots and selections.
+		nde.afterCutOut(tx, jointId, replacement.id, now);
 		audit.record(
 			{
 				action: 'cut_out',

@@ -13,6 +13,7 @@ import { db, schema } from './db';
 import * as audit from './audit';
 import * as events from './events';
 import { JointError, refreshState, row, stateInput } from './joints';
+import * as nde from './nde';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
 import type { RecordWeld } from '$lib/schemas/inspection';
@@ -516,6 +517,8 @@ export function record(
 			.where(eq(schema.joints.id, jointId))
 			.run();
 		const after = refreshState(jointId, tx, now)!;
+		// NDE lots: an original weld joins the open lot of its grouping.
+		nde.afterWeld(tx, jointId, cycle, now);
 		audit.record(
 			{
 				action: 'weld',

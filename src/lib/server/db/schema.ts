@@ -27,7 +27,7 @@ import type { ProjectRole } from '../../permissions';
 import type { CheckId, Finding } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
 import type { LotGrouping, LotRule } from '../../nde/extent';
-import type { SelectionReason } from '../../nde/sampling';
+import type { LotStage, SelectionReason } from '../../nde/sampling';
 
 export type { ProjectRole };
 export const UNIT_SYSTEMS = ['imperial', 'metric'] as const;
@@ -572,6 +572,8 @@ export const ndeLots = sqliteTable(
 		label: text('label').notNull(),
 		everyWelder: integer('every_welder', { mode: 'boolean' }).notNull().default(true),
 		status: text('status').$type<'open' | 'closed'>().notNull().default('open'),
+		/** Where the lot stood at its last change (src/lib/nde/sampling.ts), for filtering lists. */
+		stage: text('stage').$type<LotStage>().notNull().default('open'),
 		createdAt: createdAt(),
 		closedBy: text('closed_by').references(() => users.id),
 		closedAt: integer('closed_at'),
@@ -587,7 +589,8 @@ export const ndeLots = sqliteTable(
 			t.groupKey,
 			t.seq
 		),
-		index('nde_lots_project_status').on(t.projectId, t.status, t.label)
+		index('nde_lots_project_status').on(t.projectId, t.status, t.label),
+		index('nde_lots_project_stage').on(t.projectId, t.stage, t.label)
 	]
 );
 
@@ -664,6 +667,8 @@ export const ndeSelections = sqliteTable(
 		tracerOfId: integer('tracer_of_id').references((): AnySQLiteColumn => ndeSelections.id),
 		/** The selection this one replaced: a swap, or the weld a cut-out replaced. */
 		replacesId: integer('replaces_id').references((): AnySQLiteColumn => ndeSelections.id),
+		/** Carried to a cut-out's replacement: a failure of it calls no tracers (341.3.4(f)). */
+		carried: integer('carried', { mode: 'boolean' }).notNull().default(false),
 		/** Why it was swapped in, or why it was cancelled. */
 		note: text('note'),
 		cancelledBy: text('cancelled_by').references(() => users.id)

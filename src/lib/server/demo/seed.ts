@@ -25,6 +25,7 @@ import { judgeReadings } from '../inspections';
 import { passProcesses } from '../welds';
 import { weldNumberSortKey } from '$lib/weld-numbers';
 import { mulberry32 } from '$lib/random';
+import { seedDemoLots } from '../nde/demo';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength } from '$lib/units';
 import type { JointState } from '$lib/joint-state';
@@ -200,6 +201,8 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 				}
 				recordLastUse(tx, projectId);
 			});
+			// NDE lots in every stage, from the welds above.
+			seedDemoLots(tx);
 			audit.record({ action: 'seed', entity: 'database', after: { demo: true } }, tx);
 			return {
 				seeded: true,
