@@ -20,6 +20,7 @@ export {
 } from './nde/view';
 export {
 	welderRates,
+	repairRates,
 	welderStamps,
 	projectRate,
 	lotRates,

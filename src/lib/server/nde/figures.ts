@@ -4,9 +4,16 @@
  */
 import { and, asc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm';
 import { db, schema } from '../db';
-import { repairRate, type ExaminedWeld, type RepairRate } from '$lib/nde/repair-rate';
+import {
+	JOINT_BASIS,
+	LENGTH_BASIS,
+	repairRate,
+	type ExaminedWeld,
+	type RepairRate
+} from '$lib/nde/repair-rate';
 import { REASON_WORDS, SAMPLE_REASONS, type SelectionReason } from '$lib/nde/sampling';
 import { displayWeldNumber, STATE_LOOKS } from '$lib/joint-state';
+import { SELECTION_FILTERS, type SelectionFilter } from '$lib/nde/log';
 
 const i = schema.inspections;
 
@@ -165,8 +172,7 @@ export function logFields(jointIds: readonly number[]): Map<number, LogFields> {
 	return out;
 }
 
-export const SELECTION_FILTERS = ['selected', 'sample', 'tracer', 'full', 'not-selected'] as const;
-export type SelectionFilter = (typeof SELECTION_FILTERS)[number];
+export { SELECTION_FILTERS, type SelectionFilter };
 
 const REASONS_OF: Record<Exclude<SelectionFilter, 'not-selected'>, readonly SelectionReason[]> = {
 	selected: ['random', 'swap', 'client', 'tracer', 'full', 'required'],
@@ -378,4 +384,21 @@ export function welderStamps(projectId: number) {
 		.where(eq(schema.welders.projectId, projectId))
 		.orderBy(asc(schema.welders.stamp))
 		.all();
+}
+
+/** Every repair-rate figure of the project, each with its basis named, for the pages and the API. */
+export function repairRates(projectId: number) {
+	const names = new Map(welderStamps(projectId).map((w) => [w.id, w]));
+	return {
+		bases: { joint: JOINT_BASIS, length: LENGTH_BASIS },
+		project: projectRate(projectId),
+		welders: [...welderRates(projectId)]
+			.map(([id, rate]) => ({
+				stamp: names.get(id)?.stamp ?? String(id),
+				name: names.get(id)?.name ?? '',
+				...rate
+			}))
+			.sort((a, b) => a.stamp.localeCompare(b.stamp)),
+		lots: lotRates(projectId)
+	};
 }

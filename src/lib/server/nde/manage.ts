@@ -10,7 +10,8 @@ import * as audit from '../audit';
 import { JointError, refreshState } from '../joints';
 import type { NdeSettings } from '$lib/schemas/nde';
 import { Forming, formFromWelds, projectRule, projectsBehind, resetMark } from './forming';
-import { lotRow, type Tx } from './rows';
+import { firstResults, lotRow, type Tx } from './rows';
+import { onReject } from './results';
 import { refreshLot } from './standing';
 
 const l = schema.ndeLots;
@@ -158,6 +159,30 @@ function adoptOlderSelections(tx: Tx, projectId: number, at: number) {
 			tx
 		);
 		for (const row of rows) refreshState(row.jointId, tx, at);
+		// A reject among them calls its tracers now, as it would have when recorded (341.3.4).
+		const results = firstResults(
+			tx,
+			rows.map((r) => r.jointId),
+			lot.method
+		);
+		for (const row of rows) {
+			const first = results.get(row.jointId);
+			if (first?.decision !== 'reject') continue;
+			const inspection = tx
+				.select()
+				.from(schema.inspections)
+				.where(eq(schema.inspections.id, first.inspectionId))
+				.get()!;
+			const joint = tx.select().from(schema.joints).where(eq(schema.joints.id, row.jointId)).get()!;
+			onReject(tx, {
+				selectionId: row.id,
+				joint,
+				inspection,
+				repeated: false,
+				userId: inspection.inspectorId,
+				answer: { lot: null, tracers: [], short: [], none: null }
+			});
+		}
 		refreshLot(tx, lotId, at);
 	}
 }

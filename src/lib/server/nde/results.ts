@@ -211,104 +211,15 @@ export function afterResult(
 			0,
 			rows.findIndex((r) => r.id === inspection.id)
 		);
-		const repeated = earlier.some((r) => r.decision === 'reject');
-		const called = tx
-			.select({ id: c.id })
-			.from(c)
-			.where(and(eq(c.selectionId, selection.id), isNull(c.withdrawnAt)))
-			.get();
-		const failing = data.selections.find((x) => x.id === selection.id)!;
-		const welders = responsible(tx, joint, inspection.repairCycle, args.extras?.welders);
-		const seed = mixSeed(failing.seed ?? lotId, `reject:${inspection.id}`);
-		const result = callsForReject(
-			{ selection: { ...failing, result: 'reject' }, welders, at, repeated, seed },
-			data.members,
-			data.selections
-		);
-		answer.none = result.none ?? null;
-		// A reject corrected into a reject again keeps the tracers it called the first time.
-		if (!called && result.calls.length > 0) {
-			const named = stamps(tx, welders);
-			const info = jointsInfo(
-				tx,
-				result.calls.flatMap((call) => call.jointIds)
-			);
-			for (const call of result.calls) {
-				tx.insert(c)
-					.values({
-						lotId,
-						selectionId: selection.id,
-						inspectionId: inspection.id,
-						welderId: call.welderId,
-						level: call.level,
-						wanted: call.wanted,
-						short: call.short,
-						calledAt: at
-					})
-					.run();
-				if (call.short > 0)
-					answer.short.push({ welder: named.get(call.welderId) ?? '', count: call.short });
-				for (const jointId of call.jointIds) {
-					const full = call.level >= FULL_LEVEL;
-					tx.insert(s)
-						.values({
-							projectId: joint.projectId,
-							jointId,
-							method: inspection.method,
-							lot: data.lot.label,
-							lotId,
-							roundId: selection.roundId,
-							reason: full ? 'full' : 'tracer',
-							level: call.level,
-							welderId: call.welderId,
-							tracerOfId: selection.id,
-							tracerOfJointId: joint.id,
-							selectedBy: args.userId,
-							selectedAt: at
-						})
-						.run();
-					const joint2 = info.get(jointId);
-					if (joint2)
-						answer.tracers.push({
-							jointId,
-							drawingId: joint2.drawingId,
-							drawing: joint2.drawing,
-							label: joint2.label,
-							welder: named.get(call.welderId) ?? '',
-							level: call.level,
-							kind: full ? 'full' : 'tracer',
-							clause: call.clause
-						});
-				}
-			}
-			audit.record(
-				{
-					action: 'nde_tracers',
-					entity: 'nde_lot',
-					entityId: lotId,
-					projectId: joint.projectId,
-					userId: args.userId,
-					at,
-					after: {
-						reject: { jointId: joint.id, inspectionId: inspection.id, selectionId: selection.id },
-						seed,
-						calls: result.calls,
-						none: result.none ?? null
-					}
-				},
-				tx
-			);
-			for (const tracer of answer.tracers) {
-				refreshState(tracer.jointId, tx, at);
-				events.publish(joint.projectId, {
-					type: 'joint',
-					action: 'updated',
-					jointId: tracer.jointId,
-					drawingId: tracer.drawingId,
-					by: args.userId
-				});
-			}
-		}
+		onReject(tx, {
+			selectionId: selection.id,
+			joint,
+			inspection,
+			repeated: earlier.some((r) => r.decision === 'reject'),
+			welders: args.extras?.welders,
+			userId: args.userId,
+			answer
+		});
 	}
 	refreshLot(tx, lotId, at);
 	return answer;
@@ -357,5 +268,125 @@ function withdraw(tx: Tx, selectionId: number, at: number, userId: string) {
 			.where(eq(s.id, row.id))
 			.run();
 		refreshState(row.jointId, tx, at);
+	}
+}
+
+/**
+ * A reject of a selected weld: the tracers (or 100 %) it calls by ASME B31.3-2018 341.3.4,
+ * written with their call, named in `answer`. Nothing is called twice for one selection.
+ */
+export function onReject(
+	tx: Tx,
+	args: {
+		selectionId: number;
+		joint: Joint;
+		inspection: Inspection;
+		repeated: boolean;
+		welders?: string[];
+		userId: string;
+		answer: ResultAnswer;
+	}
+) {
+	const { joint, inspection, repeated, answer } = args;
+	const at = inspection.inspectedAt;
+	const selection = tx.select().from(s).where(eq(s.id, args.selectionId)).get()!;
+	const lotId = selection.lotId!;
+	const data = lotData(tx, lotId)!;
+	const called = tx
+		.select({ id: c.id })
+		.from(c)
+		.where(and(eq(c.selectionId, selection.id), isNull(c.withdrawnAt)))
+		.get();
+	const failing = data.selections.find((x) => x.id === selection.id)!;
+	const welders = responsible(tx, joint, inspection.repairCycle, args.welders);
+	const seed = mixSeed(failing.seed ?? lotId, `reject:${inspection.id}`);
+	const result = callsForReject(
+		{ selection: { ...failing, result: 'reject' }, welders, at, repeated, seed },
+		data.members,
+		data.selections
+	);
+	answer.none = result.none ?? null;
+	// A reject corrected into a reject again keeps the tracers it called the first time.
+	if (!called && result.calls.length > 0) {
+		const named = stamps(tx, welders);
+		const info = jointsInfo(
+			tx,
+			result.calls.flatMap((call) => call.jointIds)
+		);
+		for (const call of result.calls) {
+			tx.insert(c)
+				.values({
+					lotId,
+					selectionId: selection.id,
+					inspectionId: inspection.id,
+					welderId: call.welderId,
+					level: call.level,
+					wanted: call.wanted,
+					short: call.short,
+					calledAt: at
+				})
+				.run();
+			if (call.short > 0)
+				answer.short.push({ welder: named.get(call.welderId) ?? '', count: call.short });
+			for (const jointId of call.jointIds) {
+				const full = call.level >= FULL_LEVEL;
+				tx.insert(s)
+					.values({
+						projectId: joint.projectId,
+						jointId,
+						method: inspection.method!,
+						lot: data.lot.label,
+						lotId,
+						roundId: selection.roundId,
+						reason: full ? 'full' : 'tracer',
+						level: call.level,
+						welderId: call.welderId,
+						tracerOfId: selection.id,
+						tracerOfJointId: joint.id,
+						selectedBy: args.userId,
+						selectedAt: at
+					})
+					.run();
+				const joint2 = info.get(jointId);
+				if (joint2)
+					answer.tracers.push({
+						jointId,
+						drawingId: joint2.drawingId,
+						drawing: joint2.drawing,
+						label: joint2.label,
+						welder: named.get(call.welderId) ?? '',
+						level: call.level,
+						kind: full ? 'full' : 'tracer',
+						clause: call.clause
+					});
+			}
+		}
+		audit.record(
+			{
+				action: 'nde_tracers',
+				entity: 'nde_lot',
+				entityId: lotId,
+				projectId: joint.projectId,
+				userId: args.userId,
+				at,
+				after: {
+					reject: { jointId: joint.id, inspectionId: inspection.id, selectionId: selection.id },
+					seed,
+					calls: result.calls,
+					none: result.none ?? null
+				}
+			},
+			tx
+		);
+		for (const tracer of answer.tracers) {
+			refreshState(tracer.jointId, tx, at);
+			events.publish(joint.projectId, {
+				type: 'joint',
+				action: 'updated',
+				jointId: tracer.jointId,
+				drawingId: tracer.drawingId,
+				by: args.userId
+			});
+		}
 	}
 }

@@ -121,7 +121,7 @@ export function list(projectId: number, query: LotsQuery) {
 
 /** Counts of the project's lots per stage, and the welds due for a request. */
 export function overview(projectId: number) {
-	const byStage = Object.fromEntries(
+	const byStage: Record<string, number> = Object.fromEntries(
 		db
 			.select({ stage: l.stage, n: count() })
 			.from(l)

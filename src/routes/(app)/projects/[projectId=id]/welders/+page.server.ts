@@ -1,6 +1,7 @@
 import { fail } from '@sveltejs/kit';
 import type { z } from 'zod';
 import * as welders from '$lib/server/welders';
+import * as nde from '$lib/server/nde';
 import { can } from '$lib/permissions';
 import { qualificationSchema, welderSchema, welderStatusSchema } from '$lib/schemas/outstanding';
 import type { Actions, PageServerLoad } from './$types';
@@ -8,7 +9,8 @@ import type { Actions, PageServerLoad } from './$types';
 export const load = (({ locals }) => ({
 	title: 'Welders',
 	...welders.register(locals.projectId!),
-	canManage: can(locals.user!, 'welder.manage', locals.projectId!)
+	canManage: can(locals.user!, 'welder.manage', locals.projectId!),
+	repairRates: nde.repairRates(locals.projectId!)
 })) satisfies PageServerLoad;
 
 type Failure = { action: string; message: string; field?: string; error: true };
