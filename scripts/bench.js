@@ -8,7 +8,7 @@ if (!fs.existsSync('build/handler.js')) {
 	if (result.status !== 0) process.exit(result.status ?? 1);
 }
 
-const sections = ['startup', 'uploads', 'first-render', 'pins', 'weld-log', 'export'];
+const sections = ['startup', 'uploads', 'first-render', 'pins', 'weld-log', 'export', 'nde'];
 for (const name of sections) {
 	const { run } = await import(`./bench/${name}.js`);
 	console.log(`\n## ${name}`);

@@ -1,5 +1,5 @@
 /** Joints as the lot page, the request e-mail and the register name them. */
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { schema } from '../db';
 import { displayWeldNumber, STATE_LOOKS, type JointState } from '$lib/joint-state';
 import type { Reader } from './rows';
@@ -27,90 +27,135 @@ export interface JointInfo {
 	sheet: number | null;
 }
 
-export function jointsInfo(reader: Reader, ids: readonly number[]): Map<number, JointInfo> {
-	const out = new Map<number, JointInfo>();
-	const j = schema.joints;
-	for (let start = 0; start < ids.length; start += 500) {
-		const chunk = [...new Set(ids.slice(start, start + 500))];
-		const rows = reader
-			.select({
-				id: j.id,
-				drawingId: j.drawingId,
-				drawing: schema.drawings.number,
-				number: j.number,
-				repairCycle: j.repairCycle,
-				kind: j.kind,
-				location: j.location,
-				size: j.sizeText,
-				thickness: j.thicknessText,
-				diameterMm: j.diameterMm,
-				state: j.state,
-				voidedAt: j.voidedAt,
-				weldedOn: schema.welds.weldedOn,
-				weldId: schema.welds.id
-			})
-			.from(j)
-			.innerJoin(schema.drawings, eq(schema.drawings.id, j.drawingId))
-			.leftJoin(schema.welds, and(eq(schema.welds.jointId, j.id), eq(schema.welds.repairCycle, 0)))
-			.where(inArray(j.id, chunk))
-			.all();
-		const weldIds = rows.map((r) => r.weldId).filter((id): id is number => id != null);
-		const stamps = new Map<number, { pass: string; stamp: string }[]>();
-		if (weldIds.length) {
-			for (const row of reader
-				.select({
-					weldId: schema.weldWelders.weldId,
-					pass: schema.weldWelders.pass,
-					stamp: schema.welders.stamp
-				})
-				.from(schema.weldWelders)
-				.innerJoin(schema.welders, eq(schema.welders.id, schema.weldWelders.welderId))
-				.where(inArray(schema.weldWelders.weldId, weldIds))
-				.orderBy(asc(schema.welders.stamp))
-				.all())
-				stamps.set(row.weldId, [...(stamps.get(row.weldId) ?? []), row]);
-		}
-		const sheets = new Map(
-			reader
-				.select({ jointId: schema.pins.jointId, pageIndex: schema.pins.pageIndex })
-				.from(schema.pins)
-				.innerJoin(schema.revisions, eq(schema.revisions.id, schema.pins.revisionId))
-				.where(and(inArray(schema.pins.jointId, chunk), eq(schema.revisions.status, 'current')))
-				.all()
-				.map((p) => [p.jointId, p.pageIndex + 1])
-		);
-		for (const r of rows) {
-			const passes = r.weldId != null ? (stamps.get(r.weldId) ?? []) : [];
-			const order = { root: 0, fill: 1, cap: 2 } as Record<string, number>;
-			const welders = [
-				...new Set(
-					[...passes]
-						.sort((a, b) => (order[a.pass] ?? 3) - (order[b.pass] ?? 3))
-						.map((p) => p.stamp)
-				)
-			];
-			out.set(r.id, {
-				id: r.id,
-				drawingId: r.drawingId,
-				drawing: r.drawing,
-				number: r.number,
-				label: displayWeldNumber(r.number, r.repairCycle),
-				repairCycle: r.repairCycle,
-				kind: r.kind,
-				location: r.location,
-				size: r.size,
-				thickness: r.thickness,
-				diameterMm: r.diameterMm,
-				state: r.state,
-				stateLabel: STATE_LOOKS[r.state].label,
-				voided: r.voidedAt != null,
-				welders,
-				weldedOn: r.weldedOn,
-				sheet: sheets.get(r.id) ?? null
-			});
-		}
+const j = schema.joints;
+const passOrder: Record<string, number> = { root: 0, fill: 1, cap: 2 };
+
+function rowsQuery(reader: Reader) {
+	return reader
+		.select({
+			id: j.id,
+			drawingId: j.drawingId,
+			drawing: schema.drawings.number,
+			number: j.number,
+			repairCycle: j.repairCycle,
+			kind: j.kind,
+			location: j.location,
+			size: j.sizeText,
+			thickness: j.thicknessText,
+			diameterMm: j.diameterMm,
+			state: j.state,
+			voidedAt: j.voidedAt,
+			weldedOn: schema.welds.weldedOn,
+			weldId: schema.welds.id
+		})
+		.from(j)
+		.innerJoin(schema.drawings, eq(schema.drawings.id, j.drawingId))
+		.leftJoin(schema.welds, and(eq(schema.welds.jointId, j.id), eq(schema.welds.repairCycle, 0)));
+}
+
+type Row = Awaited<ReturnType<ReturnType<typeof rowsQuery>['all']>>[number];
+
+function build(
+	rows: Row[],
+	passes: { weldId: number; pass: string; stamp: string }[],
+	sheets: Map<number, number>,
+	out: Map<number, JointInfo>
+) {
+	const stamps = new Map<number, { pass: string; stamp: string }[]>();
+	for (const row of passes) {
+		const list = stamps.get(row.weldId);
+		if (list) list.push(row);
+		else stamps.set(row.weldId, [row]);
+	}
+	for (const r of rows) {
+		const mine = r.weldId != null ? (stamps.get(r.weldId) ?? []) : [];
+		const welders = [
+			...new Set(
+				[...mine]
+					.sort(
+						(a, b) =>
+							(passOrder[a.pass] ?? 3) - (passOrder[b.pass] ?? 3) || a.stamp.localeCompare(b.stamp)
+					)
+					.map((p) => p.stamp)
+			)
+		];
+		out.set(r.id, {
+			id: r.id,
+			drawingId: r.drawingId,
+			drawing: r.drawing,
+			number: r.number,
+			label: displayWeldNumber(r.number, r.repairCycle),
+			repairCycle: r.repairCycle,
+			kind: r.kind,
+			location: r.location,
+			size: r.size,
+			thickness: r.thickness,
+			diameterMm: r.diameterMm,
+			state: r.state,
+			stateLabel: STATE_LOOKS[r.state].label,
+			voided: r.voidedAt != null,
+			welders,
+			weldedOn: r.weldedOn,
+			sheet: sheets.get(r.id) ?? null
+		});
 	}
 	return out;
+}
+
+const passesQuery = (reader: Reader) =>
+	reader
+		.select({
+			weldId: schema.weldWelders.weldId,
+			pass: schema.weldWelders.pass,
+			stamp: schema.welders.stamp
+		})
+		.from(schema.weldWelders)
+		.innerJoin(schema.welders, eq(schema.welders.id, schema.weldWelders.welderId));
+
+const sheetsQuery = (reader: Reader) =>
+	reader
+		.select({ jointId: schema.pins.jointId, pageIndex: schema.pins.pageIndex })
+		.from(schema.pins)
+		.innerJoin(schema.revisions, eq(schema.revisions.id, schema.pins.revisionId));
+
+const sheetMap = (rows: { jointId: number; pageIndex: number }[]) =>
+	new Map(rows.map((p) => [p.jointId, p.pageIndex + 1]));
+
+export function jointsInfo(reader: Reader, ids: readonly number[]): Map<number, JointInfo> {
+	const out = new Map<number, JointInfo>();
+	for (let start = 0; start < ids.length; start += 500) {
+		const chunk = [...new Set(ids.slice(start, start + 500))];
+		const rows = rowsQuery(reader).where(inArray(j.id, chunk)).all();
+		const weldIds = rows.map((r) => r.weldId).filter((id): id is number => id != null);
+		const passes = weldIds.length
+			? passesQuery(reader).where(inArray(schema.weldWelders.weldId, weldIds)).all()
+			: [];
+		const sheets = sheetsQuery(reader)
+			.where(and(inArray(schema.pins.jointId, chunk), eq(schema.revisions.status, 'current')))
+			.all();
+		build(rows, passes, sheetMap(sheets), out);
+	}
+	return out;
+}
+
+/** Every weld of a lot, named: three reads through the lot, however many welds it holds. */
+export function lotJointsInfo(reader: Reader, lotId: number): Map<number, JointInfo> {
+	const m = schema.ndeLotJoints;
+	const inLot = reader.select({ id: m.jointId }).from(m).where(eq(m.lotId, lotId));
+	const rows = rowsQuery(reader).where(inArray(j.id, inLot)).all();
+	const passes = passesQuery(reader)
+		.innerJoin(schema.welds, eq(schema.welds.id, schema.weldWelders.weldId))
+		.where(and(inArray(schema.welds.jointId, inLot), eq(schema.welds.repairCycle, 0)))
+		.all();
+	const sheets = sheetsQuery(reader)
+		.where(and(inArray(schema.pins.jointId, inLot), eq(schema.revisions.status, 'current')))
+		.all();
+	return build(
+		rows,
+		passes.map(({ weldId, pass, stamp }) => ({ weldId, pass, stamp })),
+		sheetMap(sheets),
+		new Map()
+	);
 }
 
 /** The link that opens a joint on its drawing. */

@@ -48,10 +48,11 @@ export function weldersOf(reader: Reader, jointIds: readonly number[]): Map<numb
 	return out;
 }
 
-/** The lot's welds, void ones flagged, with their welders. */
-export function members(reader: Reader, lotId: number): (LotMember & { state: JointState })[] {
+/** The lots' welds, void ones flagged, with their welders: two reads however many lots. */
+function membersOf(reader: Reader, lotIds: readonly number[]) {
 	const rows = reader
 		.select({
+			lotId: m.lotId,
 			jointId: m.jointId,
 			weldedAt: m.weldedAt,
 			kind: j.kind,
@@ -60,22 +61,44 @@ export function members(reader: Reader, lotId: number): (LotMember & { state: Jo
 		})
 		.from(m)
 		.innerJoin(j, eq(j.id, m.jointId))
-		.where(eq(m.lotId, lotId))
-		.orderBy(asc(m.jointId))
+		.where(inArray(m.lotId, [...lotIds]))
+		.orderBy(asc(m.lotId), asc(m.jointId))
 		.all();
-	const welders = weldersOf(
-		reader,
-		rows.map((r) => r.jointId)
-	);
-	return rows.map((r) => ({
-		jointId: r.jointId,
-		welders: welders.get(r.jointId) ?? [],
-		kind: r.kind,
-		weldedAt: r.weldedAt,
-		candidate: r.voidedAt == null && CANDIDATE_STATES.includes(r.state),
-		voided: r.voidedAt != null,
-		state: r.state
-	}));
+	// The original weld's welders, read through the lot so the index walks lot → weld → pass.
+	const passes = reader
+		.select({ jointId: schema.welds.jointId, welderId: schema.weldWelders.welderId })
+		.from(m)
+		.innerJoin(
+			schema.welds,
+			and(eq(schema.welds.jointId, m.jointId), eq(schema.welds.repairCycle, 0))
+		)
+		.innerJoin(schema.weldWelders, eq(schema.weldWelders.weldId, schema.welds.id))
+		.where(inArray(m.lotId, [...lotIds]))
+		.all();
+	const welders = new Map<number, number[]>();
+	for (const row of passes) {
+		const list = welders.get(row.jointId);
+		if (!list) welders.set(row.jointId, [row.welderId]);
+		else if (!list.includes(row.welderId)) list.push(row.welderId);
+	}
+	for (const list of welders.values()) list.sort((a, b) => a - b);
+	const out = new Map<number, (LotMember & { state: JointState })[]>(lotIds.map((id) => [id, []]));
+	for (const r of rows)
+		out.get(r.lotId)!.push({
+			jointId: r.jointId,
+			welders: welders.get(r.jointId) ?? [],
+			kind: r.kind,
+			weldedAt: r.weldedAt,
+			candidate: r.voidedAt == null && CANDIDATE_STATES.includes(r.state),
+			voided: r.voidedAt != null,
+			state: r.state
+		});
+	return out;
+}
+
+/** One lot's welds, void ones flagged, with their welders. */
+export function members(reader: Reader, lotId: number) {
+	return membersOf(reader, [lotId]).get(lotId)!;
 }
 
 /** The first result in force of a method on each joint (a correction stands for the row it corrects). */
@@ -117,8 +140,8 @@ export function firstResults(
 	return out;
 }
 
-/** The lot's selections in force (not cancelled), each with its first result. */
-export function selections(reader: Reader, lotId: number, method: NdeMethod) {
+/** The lots' selections in force (not cancelled), each with its first result by the lot's method. */
+function selectionsOf(reader: Reader, lots: readonly { id: number; method: NdeMethod }[]) {
 	const rows = reader
 		.select({
 			row: s,
@@ -127,15 +150,38 @@ export function selections(reader: Reader, lotId: number, method: NdeMethod) {
 		})
 		.from(s)
 		.leftJoin(schema.ndeRounds, eq(schema.ndeRounds.id, s.roundId))
-		.where(and(eq(s.lotId, lotId), isNull(s.cancelledAt)))
+		.where(
+			and(
+				inArray(
+					s.lotId,
+					lots.map((lot) => lot.id)
+				),
+				isNull(s.cancelledAt)
+			)
+		)
 		.orderBy(asc(s.id))
 		.all();
-	const results = firstResults(reader, [...new Set(rows.map((r) => r.row.jointId))], method);
-	return rows.map(({ row, roundAt, seed }) => ({
-		...toSelection(row, roundAt, results.get(row.jointId)?.decision ?? null),
-		row,
-		seed
-	}));
+	const results = new Map<string, 'accept' | 'reject'>();
+	for (const method of new Set(lots.map((lot) => lot.method))) {
+		const ids = [...new Set(rows.filter((r) => r.row.method === method).map((r) => r.row.jointId))];
+		for (const [jointId, first] of firstResults(reader, ids, method))
+			results.set(`${jointId}/${method}`, first.decision);
+	}
+	const out = new Map<number, ReturnType<typeof withResult>[]>(lots.map((lot) => [lot.id, []]));
+	function withResult({ row, roundAt, seed }: (typeof rows)[number]) {
+		return {
+			...toSelection(row, roundAt, results.get(`${row.jointId}/${row.method}`) ?? null),
+			row,
+			seed
+		};
+	}
+	for (const r of rows) out.get(r.row.lotId!)?.push(withResult(r));
+	return out;
+}
+
+/** One lot's selections in force, each with its first result. */
+export function selections(reader: Reader, lotId: number, method: NdeMethod) {
+	return selectionsOf(reader, [{ id: lotId, method }]).get(lotId)!;
 }
 
 export function toSelection(
@@ -157,10 +203,11 @@ export function toSelection(
 	};
 }
 
-export function calls(reader: Reader, lotId: number): TracerCall[] {
+function callsOf(reader: Reader, lotIds: readonly number[]) {
 	const c = schema.ndeTracerCalls;
-	return reader
+	const rows = reader
 		.select({
+			lotId: c.lotId,
 			selectionId: c.selectionId,
 			welderId: c.welderId,
 			level: c.level,
@@ -170,21 +217,48 @@ export function calls(reader: Reader, lotId: number): TracerCall[] {
 		})
 		.from(c)
 		.innerJoin(s, eq(s.id, c.selectionId))
-		.where(and(eq(c.lotId, lotId), isNull(c.withdrawnAt)))
+		.where(and(inArray(c.lotId, [...lotIds]), isNull(c.withdrawnAt)))
 		.orderBy(asc(c.id))
 		.all();
+	const out = new Map<number, TracerCall[]>(lotIds.map((id) => [id, []]));
+	for (const { lotId, ...call } of rows) out.get(lotId)!.push(call);
+	return out;
+}
+
+/** One lot's tracer calls still standing. */
+export function calls(reader: Reader, lotId: number): TracerCall[] {
+	return callsOf(reader, [lotId]).get(lotId)!;
+}
+
+/** Everything the sampling rules need of each lot, in five reads however many lots. */
+export function lotsData(reader: Reader, lotIds: readonly number[]) {
+	const lots = lotIds.length
+		? reader
+				.select()
+				.from(l)
+				.where(inArray(l.id, [...lotIds]))
+				.all()
+		: [];
+	const ids = lots.map((lot) => lot.id);
+	const membersBy = ids.length ? membersOf(reader, ids) : new Map();
+	const selectionsBy = ids.length ? selectionsOf(reader, lots) : new Map();
+	const callsBy = ids.length ? callsOf(reader, ids) : new Map();
+	return new Map(
+		lots.map((lot) => [
+			lot.id,
+			{
+				lot,
+				members: membersBy.get(lot.id)! as (LotMember & { state: JointState })[],
+				selections: selectionsBy.get(lot.id)! as ReturnType<typeof selections>,
+				calls: callsBy.get(lot.id)! as TracerCall[]
+			}
+		])
+	);
 }
 
 /** Everything the sampling rules need of one lot. */
 export function lotData(reader: Reader, lotId: number) {
-	const lot = lotRow(reader, lotId);
-	if (!lot) return undefined;
-	return {
-		lot,
-		members: members(reader, lotId),
-		selections: selections(reader, lotId, lot.method),
-		calls: calls(reader, lotId)
-	};
+	return lotsData(reader, [lotId]).get(lotId);
 }
 
 export type LotData = NonNullable<ReturnType<typeof lotData>>;

@@ -102,6 +102,7 @@ export function propose(projectId: number, lotId: number, seed?: number) {
 	const data = lotOf(db, projectId, lotId);
 	const drawn = proposal(data, seed ?? newSeed());
 	const ids = drawn.picks.map((p) => p.jointId);
+	const selected = new Set(data.selections.map((x) => x.jointId));
 	const welderStamps = stamps(db, [...new Set(drawn.unrepresentable.map((u) => u.welderId))]);
 	return {
 		lotId,
@@ -118,9 +119,7 @@ export function propose(projectId: number, lotId: number, seed?: number) {
 			stamp: welderStamps.get(u.welderId) ?? String(u.welderId),
 			welds: u.welds
 		})),
-		candidates: data.members.filter(
-			(x) => x.candidate && !data.selections.some((sel) => sel.jointId === x.jointId)
-		).length
+		candidates: data.members.filter((x) => x.candidate && !selected.has(x.jointId)).length
 	};
 }
 

@@ -8,8 +8,8 @@ import { db, schema } from '../db';
 import { REASON_WORDS, STAGE_WORDS, summarizeLot, type LotSummary } from '$lib/nde/sampling';
 import { GROUPING_LABELS } from '$lib/nde/extent';
 import type { LotsQuery } from '$lib/schemas/nde';
-import { jointHref, jointsInfo } from './joints-info';
-import { lotData, stamps, type LotData, type Reader } from './rows';
+import { jointHref, jointsInfo, lotJointsInfo } from './joints-info';
+import { lotData, lotsData, type LotData, type Reader } from './rows';
 import { due } from './requests';
 import { projectRule } from './forming';
 
@@ -107,7 +107,11 @@ export function list(projectId: number, query: LotsQuery) {
 		.limit(query.pageSize)
 		.offset((query.page - 1) * query.pageSize)
 		.all();
-	const lots = rows.map((r) => lotData(db, r.id)!);
+	const data = lotsData(
+		db,
+		rows.map((r) => r.id)
+	);
+	const lots = rows.map((r) => data.get(r.id)!);
 	const names = welderNames(db, [
 		...new Set(lots.flatMap((d) => d.members.flatMap((m) => m.welders)))
 	]);
@@ -147,7 +151,9 @@ export function detail(projectId: number, lotId: number) {
 	const ids = [
 		...new Set([...data.members.map((m) => m.jointId), ...data.selections.map((s) => s.jointId)])
 	];
-	const info = jointsInfo(db, ids);
+	const info = lotJointsInfo(db, lotId);
+	const missing = ids.filter((id) => !info.has(id));
+	for (const [id, joint] of jointsInfo(db, missing)) info.set(id, joint);
 	const names = welderNames(db, [
 		...new Set([...data.members.flatMap((m) => m.welders), ...data.calls.map((c) => c.welderId)])
 	]);
