@@ -14,6 +14,9 @@ export default defineConfig({
 	fullyParallel: false,
 	retries: process.env.CI ? 1 : 0,
 	timeout: 60_000,
+	// Two cores, often shared: a sign-in (scrypt at OWASP's cost) or a sheet's first render can
+	// take several seconds under load, so a web-first assertion waits up to 15 s before it fails.
+	expect: { timeout: 15_000 },
 	reporter: process.env.CI ? [['list']] : [['list'], ['html', { open: 'never' }]],
 	use: {
 		baseURL,
@@ -37,7 +40,8 @@ export default defineConfig({
 		command: 'node scripts/e2e-server.js',
 		url: `${baseURL}/api/health`,
 		reuseExistingServer: false,
-		timeout: 240_000,
+		// The first run builds the app (a few minutes on a busy two-core machine), then seeds.
+		timeout: 600_000,
 		stdout: 'ignore',
 		gracefulShutdown: { signal: 'SIGTERM', timeout: 5000 },
 		env: {

@@ -3,16 +3,31 @@
 // and adapter-node's body limit would hold a whole upload in memory.
 import http from 'node:http';
 import { createUploadStage } from './server/upload-stage.js';
+import { DEFAULT_UPLOADS_DIR, uploadMaxMb } from './server/defaults.js';
+
+const BASELINE_HEADERS = {
+	'x-content-type-options': 'nosniff',
+	'referrer-policy': 'same-origin',
+	'x-frame-options': 'DENY',
+	// Only framing: the pdf.js worker is a static file, and a worker runs under its own file's
+	// policy, so anything stricter here would stop it fetching its fonts and decoders.
+	'content-security-policy': "frame-ancestors 'none'"
+};
 
 export async function startServer() {
 	const { handler } = await import('./build/handler.js');
 	const stage = createUploadStage({
-		uploadsDir: process.env.UPLOADS_DIR || './uploads',
-		maxMb: Number(process.env.UPLOAD_MAX_MB) || 200
+		uploadsDir: process.env.UPLOADS_DIR || DEFAULT_UPLOADS_DIR,
+		maxMb: uploadMaxMb()
 	});
 	const port = Number(process.env.PORT || 3000);
 	const host = process.env.HOST || '0.0.0.0';
-	const server = http.createServer((req, res) => stage(req, res, () => handler(req, res)));
+	const server = http.createServer((req, res) => {
+		// Every answer, the static files and the upload stage's too, carries these; SvelteKit's
+		// own headers (a page's Content-Security-Policy) replace them where it sets one.
+		for (const [name, value] of Object.entries(BASELINE_HEADERS)) res.setHeader(name, value);
+		stage(req, res, () => handler(req, res));
+	});
 	// Big drawings over a site connection take a while: no request timeout, but idle sockets close.
 	server.requestTimeout = 0;
 	server.headersTimeout = 60_000;

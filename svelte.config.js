@@ -9,7 +9,25 @@ const config = {
 	},
 	kit: {
 		// SvelteKit's origin check stays on (the default): Auth.js relies on it for its form posts.
-		adapter: adapter({ out: 'build' })
+		adapter: adapter({ out: 'build' }),
+		// pdf.js runs its worker from our own assets and compiles its image decoders (wasm);
+		// Svelte and panzoom set inline styles. Nothing is loaded from another origin.
+		csp: {
+			mode: 'auto',
+			directives: {
+				'default-src': ['self'],
+				'script-src': ['self', 'wasm-unsafe-eval'],
+				'style-src': ['self', 'unsafe-inline'],
+				'img-src': ['self', 'data:', 'blob:'],
+				'font-src': ['self', 'data:'],
+				'connect-src': ['self'],
+				'worker-src': ['self', 'blob:'],
+				'object-src': ['none'],
+				'base-uri': ['self'],
+				'form-action': ['self'],
+				'frame-ancestors': ['none']
+			}
+		}
 	}
 };
 

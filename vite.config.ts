@@ -2,13 +2,14 @@ import { sveltekit } from '@sveltejs/kit/vite';
 import tailwindcss from '@tailwindcss/vite';
 import { defineConfig, type Plugin } from 'vitest/config';
 import { createUploadStage } from './server/upload-stage.js';
+import { DEFAULT_UPLOADS_DIR, uploadMaxMb } from './server/defaults.js';
 
 /** The same streamed uploads in `vite dev` and `vite preview` as in the production server. */
 function uploadStage(): Plugin {
 	const stage = () =>
 		createUploadStage({
-			uploadsDir: process.env.UPLOADS_DIR || './uploads',
-			maxMb: Number(process.env.UPLOAD_MAX_MB) || 200
+			uploadsDir: process.env.UPLOADS_DIR || DEFAULT_UPLOADS_DIR,
+			maxMb: uploadMaxMb()
 		});
 	return {
 		name: 'tacksheet-upload-stage',

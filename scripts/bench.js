@@ -8,7 +8,16 @@ if (!fs.existsSync('build/handler.js')) {
 	if (result.status !== 0) process.exit(result.status ?? 1);
 }
 
-const sections = ['startup', 'uploads', 'first-render', 'pins', 'weld-log', 'export', 'nde'];
+const sections = [
+	'startup',
+	'uploads',
+	'first-render',
+	'pins',
+	'weld-log',
+	'export',
+	'nde',
+	'load'
+];
 for (const name of sections) {
 	const { run } = await import(`./bench/${name}.js`);
 	console.log(`\n## ${name}`);

@@ -4,6 +4,7 @@
 import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
+import { DEFAULT_DATABASE_URL, DEFAULT_UPLOADS_DIR } from '../server/defaults.js';
 
 function loadDotEnv(file = '.env') {
 	if (!fs.existsSync(file)) return;
@@ -28,8 +29,8 @@ export function applyDefaults() {
 	const env = process.env;
 	env.PORT ||= '3000';
 	env.ORIGIN ||= `http://localhost:${env.PORT}`;
-	env.DATABASE_URL ||= './data/tacksheet.db';
-	env.UPLOADS_DIR ||= './uploads';
+	env.DATABASE_URL ||= DEFAULT_DATABASE_URL;
+	env.UPLOADS_DIR ||= DEFAULT_UPLOADS_DIR;
 	const dataDir = path.dirname(path.resolve(env.DATABASE_URL));
 	if (!env.AUTH_SECRET) {
 		if (!isLocal(env.ORIGIN)) {

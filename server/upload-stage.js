@@ -127,6 +127,15 @@ function expectedOrigin(req) {
 }
 
 /**
+ * A request that signs in with a Bearer token alone. Any other Authorization scheme, or a
+ * cookie beside the token, is treated as a browser's request.
+ * @param {UploadRequest} req
+ */
+function tokenOnly(req) {
+	return /^Bearer \S+$/.test(req.headers.authorization ?? '') && !req.headers.cookie;
+}
+
+/**
  * Forward the caller's credentials, nothing else, to the app's own routes.
  * @param {UploadRequest} req
  */
@@ -204,7 +213,9 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 		const self = `http://127.0.0.1:${req.socket.localPort}`;
 		const drain = () => req.resume();
 		// Browsers send their session cookie cross-site too; only our own pages may post with it.
-		if (!req.headers.authorization && req.headers.origin !== expectedOrigin(req)) {
+		// A script with a personal API token and no cookie has no origin to check (the permit
+		// below checks the token itself).
+		if (!tokenOnly(req) && req.headers.origin !== expectedOrigin(req)) {
 			drain();
 			return sendJson(res, 403, {
 				error: 'Cross-site upload refused: upload from Tacksheet itself.'

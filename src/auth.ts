@@ -19,7 +19,14 @@ import { signInLink, type LinkPurpose } from '$lib/server/mail-templates';
 import { credentialsSchema } from '$lib/schemas/account';
 
 const LINK_MINUTES = 30;
-const PURPOSE_HEADER = 'x-tacksheet-link-purpose';
+
+/** The session as the hooks read it: who, and under which session generation. */
+export interface SessionUser {
+	id?: string;
+	generation?: number;
+}
+/** Set by Tacksheet itself when an administrator sends an invitation or a reset link. */
+export const LINK_PURPOSE_HEADER = 'x-tacksheet-link-purpose';
 
 async function authConfig(): Promise<SvelteKitAuthConfig> {
 	return {
@@ -59,7 +66,7 @@ async function authConfig(): Promise<SvelteKitAuthConfig> {
 				async sendVerificationRequest({ identifier, url, request }) {
 					// Only live accounts get a link; the page says the same either way.
 					if (!users.canSignIn(identifier)) return;
-					const asked = request.headers.get(PURPOSE_HEADER);
+					const asked = request.headers.get(LINK_PURPOSE_HEADER);
 					const purpose: LinkPurpose = asked === 'invite' || asked === 'reset' ? asked : 'sign-in';
 					await mail.send(signInLink(identifier, url, purpose, LINK_MINUTES));
 				}
@@ -74,19 +81,28 @@ async function authConfig(): Promise<SvelteKitAuthConfig> {
 				return true;
 			},
 			jwt({ token, user }) {
-				// The adapter hands over the whole user row; only the id goes into the token.
-				if (user?.id) token.sub = user.id;
+				// The adapter hands over the whole user row; only the id goes into the token, with
+				// the session generation it was signed in under (hooks.server.ts compares it).
+				if (user?.id) {
+					token.sub = user.id;
+					token.gen = users.sessionGeneration(user.id);
+				}
 				return token;
 			},
 			session({ session, token }) {
 				if (token.sub) session.user.id = token.sub;
+				(session.user as SessionUser).generation = typeof token.gen === 'number' ? token.gen : 0;
 				return session;
 			}
 		},
 		events: {
 			signOut(message) {
 				const sub = 'token' in message ? message.token?.sub : undefined;
-				if (sub) audit.record({ action: 'sign_out', entity: 'user', entityId: sub, userId: sub });
+				if (!sub) return;
+				// A JWT cannot be taken back: signing out ends every session of the user, here and
+				// on any other device, by raising the generation each one is checked against.
+				users.endSessions(sub);
+				audit.record({ action: 'sign_out', entity: 'user', entityId: sub, userId: sub });
 			},
 			signIn({ user, account }) {
 				audit.record({
@@ -157,7 +173,7 @@ export async function sendSignInLink(
 		origin,
 		'signin/nodemailer',
 		{ email, callbackUrl: `${origin}${returnTo.startsWith('/') ? returnTo : '/projects'}` },
-		new Headers({ [PURPOSE_HEADER]: purpose })
+		new Headers({ [LINK_PURPOSE_HEADER]: purpose })
 	);
 	if (!result.ok) throw new Error(`The sign-in link could not be sent (${result.redirect}).`);
 }

@@ -9,7 +9,7 @@ import crypto from 'node:crypto';
 import Database from 'better-sqlite3';
 import { PDFDocument } from 'pdf-lib';
 import { fileURLToPath } from 'node:url';
-import { percentile, rssMb, startBenchServer } from './server.js';
+import { benchPort, percentile, rssMb, startBenchServer } from './server.js';
 import { signIn } from './session.js';
 
 const DRAWINGS = 10;
@@ -147,7 +147,7 @@ async function loopDelay(server, file) {
 	throw new Error('the bench server did not report its event-loop delay');
 }
 
-export async function run({ port = 4320 } = {}) {
+export async function run({ port = benchPort(1) } = {}) {
 	const loopFile = path.join(
 		fs.mkdtempSync(path.join(os.tmpdir(), 'tacksheet-loop-')),
 		'delay.json'

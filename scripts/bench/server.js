@@ -4,7 +4,15 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 
-export async function startBenchServer({ port = 4310, env = {} } = {}) {
+/**
+ * A port for a bench server: `BENCH_PORT` (default 4310) plus the section's offset, so runs on
+ * one machine can each keep to their own range.
+ */
+export function benchPort(offset = 0) {
+	return Number(process.env.BENCH_PORT || 4310) + offset;
+}
+
+export async function startBenchServer({ port = benchPort(0), env = {} } = {}) {
 	const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'tacksheet-bench-'));
 	const origin = `http://localhost:${port}`;
 	const started = performance.now();
@@ -38,10 +46,13 @@ export async function startBenchServer({ port = 4310, env = {} } = {}) {
 		pid: child.pid,
 		dir,
 		readyMs,
-		async stop() {
-			child.kill('SIGTERM');
-			await new Promise((r) => child.once('exit', r));
-			fs.rmSync(dir, { recursive: true, force: true });
+		/** Stops the server; `keep` leaves its data folder to be read, for a later stop() to remove. */
+		async stop({ keep = false } = {}) {
+			if (child.exitCode === null && child.signalCode === null) {
+				child.kill('SIGTERM');
+				await new Promise((r) => child.once('exit', r));
+			}
+			if (!keep) fs.rmSync(dir, { recursive: true, force: true });
 		}
 	};
 }

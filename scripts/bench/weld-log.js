@@ -5,11 +5,10 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
-import { rssMb, startBenchServer, timeRequests } from './server.js';
+import { benchPort, rssMb, startBenchServer, timeRequests } from './server.js';
 import { signIn } from './session.js';
 
-// BENCH_PORT picks another port when several benches share a machine.
-const PORT = Number(process.env.BENCH_PORT ?? 4341);
+const PORT = benchPort(2);
 const DRAWINGS = 5000;
 const JOINTS_PER_DRAWING = 20;
 const AREAS = 20;

@@ -3,6 +3,7 @@
  * Also the one place that says how each state looks: label, colour and glyph.
  * Pure: used by the server (cached state column, lists), the viewer and the export.
  */
+import { NDE_METHODS, type Decision, type InspectionStage, type NdeMethod } from './domain';
 
 export const JOINT_STATES = [
 	'awaiting_fitup',
@@ -26,11 +27,7 @@ export function isComplete(state: JointState): boolean {
 	return (COMPLETE_STATES as readonly JointState[]).includes(state);
 }
 
-export const NDE_METHODS = ['RT', 'UT', 'MT', 'PT'] as const;
-export type NdeMethod = (typeof NDE_METHODS)[number];
-
-export type InspectionStage = 'fitup' | 'visual' | 'nde';
-export type Decision = 'accept' | 'reject';
+export { NDE_METHODS, type NdeMethod, type InspectionStage, type Decision };
 
 /** The role that owes the next step; the foreman welds and repairs, the inspector examines. */
 export type StateOwner = 'foreman' | 'inspector' | null;
@@ -198,15 +195,29 @@ export interface DerivedState {
 	repairCycle: number;
 }
 
+/** The record that corrects each corrected record: id of the corrected row → its correction. */
+export function correctionsOf<T extends Standing>(rows: readonly T[]): Map<number, T> {
+	const correctionOf = new Map<number, T>();
+	for (const row of rows) if (row.supersedesId != null) correctionOf.set(row.supersedesId, row);
+	return correctionOf;
+}
+
+/** What the standing rule needs of an inspection record. */
+export interface Standing {
+	id: number;
+	supersedesId?: number | null;
+}
+
 /**
- * The rows in force: a correction takes the place of the row it names, in that row's place in
- * the order, so correcting an earlier fit-up never outranks the re-fit recorded after it.
+ * The one rule of which inspection records stand: a correction takes the place of the row it
+ * names, in that row's place in the order, so correcting an earlier fit-up never outranks the
+ * re-fit recorded after it. Give the rows in the order they were recorded; the joint state,
+ * the weld log and its files, the turnover records and the card's history all read it.
  */
-export function effectiveInspections(inspections: readonly StateInspection[]): StateInspection[] {
+export function effectiveInspections<T extends Standing>(inspections: readonly T[]): T[] {
 	const ids = new Set(inspections.map((i) => i.id));
-	const correctionOf = new Map<number, StateInspection>();
-	for (const i of inspections) if (i.supersedesId != null) correctionOf.set(i.supersedesId, i);
-	const rows: StateInspection[] = [];
+	const correctionOf = correctionsOf(inspections);
+	const rows: T[] = [];
 	for (const i of inspections) {
 		if (i.supersedesId != null && ids.has(i.supersedesId)) continue;
 		let last = i;
@@ -214,6 +225,11 @@ export function effectiveInspections(inspections: readonly StateInspection[]): S
 		rows.push(last);
 	}
 	return rows;
+}
+
+/** Does this record stand, or has a later record corrected it? */
+export function stands(record: Standing, rows: readonly Standing[]): boolean {
+	return !rows.some((row) => row.supersedesId === record.id);
 }
 
 function latest(

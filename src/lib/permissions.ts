@@ -37,11 +37,19 @@ export const PROJECT_ACTIONS = [
 	/** close and reopen NDE lots: no role has it, so the QC manager (administrator) only */
 	'nde.lot.manage',
 	'weld.record',
+	/** record a weld past a lapsed or expired welder qualification, with the reason: administrators only */
+	'weld.override',
 	'inspection.request',
 	'welder.manage',
 	'project.settings',
 	/** derive and revise the project's own criteria sets: no role has it, so administrators only */
-	'criteria.manage'
+	'criteria.manage',
+	/** the WPS register: the QC manager's, and the administrator is the QC manager */
+	'wps.manage',
+	/** NDE lot rules and lots: administrators only */
+	'nde.lot.manage',
+	/** a drawing's number, title, line, area and system */
+	'drawing.edit'
 ] as const;
 export type ProjectAction = (typeof PROJECT_ACTIONS)[number];
 
@@ -54,6 +62,7 @@ const ROLE_ACTIONS: Record<ProjectRole, readonly ProjectAction[]> = {
 		'project.read',
 		'project.export',
 		'drawing.upload',
+		'drawing.edit',
 		'pin.place',
 		'pin.move',
 		'pin.review',
@@ -108,6 +117,11 @@ export function can(principal: Principal, action: ProjectAction, projectId: numb
 
 export function canGlobal(principal: Principal, _action: GlobalAction): boolean {
 	return principal.isAdmin;
+}
+
+/** The projects the caller may see: every one for an administrator (undefined), else theirs. */
+export function visibleProjectIds(principal: Principal): number[] | undefined {
+	return principal.isAdmin ? undefined : Object.keys(principal.roles).map(Number);
 }
 
 /** The role a person acts in on a project, as shown beside their name. */

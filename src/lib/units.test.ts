@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { quantitySpec } from './acceptance/readings';
 import {
 	formatAngle,
 	formatBoth,
@@ -65,9 +66,9 @@ describe('parseLength', () => {
 
 	it('refuses a bare fraction in a metric project as ambiguous', () => {
 		expect(refusal(parseLength('3/8', metric))).toMatch(/no unit/);
-		expect(refusal(parseLength('1-1/4', { units: 'metric', reading: 'rootOpening' }))).toMatch(
-			/^Root opening:/
-		);
+		expect(
+			refusal(parseLength('1-1/4', { units: 'metric', reading: quantitySpec('rootOpening') }))
+		).toMatch(/^Root opening:/);
 	});
 
 	it('keeps the text as typed and the unit it was read in', () => {
@@ -95,57 +96,61 @@ describe('parseLength', () => {
 	it.each(['abc', '3/0', '1-5/4', '3 ft', '3/8 cm', '1..5', 'in', '3/8/2', '1e3'])(
 		'refuses %s as unreadable',
 		(text) => {
-			expect(refusal(parseLength(text, { units: 'imperial', reading: 'rootOpening' }))).toMatch(
-				/^Root opening: cannot read/
-			);
+			expect(
+				refusal(parseLength(text, { units: 'imperial', reading: quantitySpec('rootOpening') }))
+			).toMatch(/^Root opening: cannot read/);
 		}
 	);
 
 	it('refuses an empty value, naming the reading', () => {
-		expect(refusal(parseLength('  ', { units: 'imperial', reading: 'throat' }))).toBe(
+		expect(refusal(parseLength('  ', { units: 'imperial', reading: quantitySpec('throat') }))).toBe(
 			'Throat: no value given'
 		);
 	});
 
 	it.each(['-1/16', '−1/16', '- 2 mm', -1])('refuses the negative %s', (input) => {
-		expect(refusal(parseLength(input, { units: 'imperial', reading: 'misalignment' }))).toMatch(
-			/^Misalignment \(hi-lo\): cannot be negative/
-		);
+		expect(
+			refusal(parseLength(input, { units: 'imperial', reading: quantitySpec('misalignment') }))
+		).toMatch(/^Misalignment \(hi-lo\): cannot be negative/);
 	});
 
 	it('refuses an angle typed as a length', () => {
-		expect(refusal(parseLength('37.5°', { units: 'imperial', reading: 'rootFace' }))).toBe(
-			'Root face: "37.5°" is an angle, not a length'
-		);
+		expect(
+			refusal(parseLength('37.5°', { units: 'imperial', reading: quantitySpec('rootFace') }))
+		).toBe('Root face: "37.5°" is an angle, not a length');
 	});
 
 	it('refuses what is absurd for that reading and says how a bare number was read', () => {
 		// "32" meant as 1/32 in: a bare number is inches in an imperial project.
-		const message = refusal(parseLength('32', { units: 'imperial', reading: 'undercutDepth' }));
+		const message = refusal(
+			parseLength('32', { units: 'imperial', reading: quantitySpec('undercutDepth') })
+		);
 		expect(message).toMatch(
 			/^Undercut depth: 32 in \(812\.8 mm\) is more than any plausible undercut depth/
 		);
 		expect(message).toMatch(/bare number is read as inches/);
-		expect(refusal(parseLength('13 in', { units: 'imperial', reading: 'undercutLength' }))).toMatch(
-			/^Undercut length:/
-		);
-		expect(parseLength('12 in', { units: 'imperial', reading: 'undercutLength' }).ok).toBe(true);
+		expect(
+			refusal(parseLength('13 in', { units: 'imperial', reading: quantitySpec('undercutLength') }))
+		).toMatch(/^Undercut length:/);
+		expect(
+			parseLength('12 in', { units: 'imperial', reading: quantitySpec('undercutLength') }).ok
+		).toBe(true);
 	});
 
 	it('refuses zero where zero means no weld or no part', () => {
-		expect(refusal(parseLength('0', { units: 'imperial', reading: 'filletLeg1' }))).toMatch(
-			/^Fillet leg 1: must be more than/
-		);
-		expect(refusal(parseLength('0 mm', { units: 'metric', reading: 'thickness' }))).toMatch(
-			/^Thickness:/
-		);
-		expect(mm('0', { units: 'imperial', reading: 'undercutDepth' })).toBe(0);
+		expect(
+			refusal(parseLength('0', { units: 'imperial', reading: quantitySpec('filletLeg1') }))
+		).toMatch(/^Fillet leg 1: must be more than/);
+		expect(
+			refusal(parseLength('0 mm', { units: 'metric', reading: quantitySpec('thickness') }))
+		).toMatch(/^Thickness:/);
+		expect(mm('0', { units: 'imperial', reading: quantitySpec('undercutDepth') })).toBe(0);
 	});
 
 	it('refuses a number that is not finite', () => {
-		expect(refusal(parseLength(Number.NaN, { units: 'imperial', reading: 'porosity' }))).toMatch(
-			/^Porosity:/
-		);
+		expect(
+			refusal(parseLength(Number.NaN, { units: 'imperial', reading: quantitySpec('porosity') }))
+		).toMatch(/^Porosity:/);
 	});
 });
 
@@ -161,18 +166,18 @@ describe('parseAngle', () => {
 		['30 deg.', 30],
 		['30', 30]
 	])('reads %s as %f°', (text, expected) => {
-		const parsed = parseAngle(text, { reading: 'bevelAngle' });
+		const parsed = parseAngle(text, { reading: quantitySpec('bevelAngle') });
 		expect(parsed).toMatchObject({ ok: true, value: expected, unit: 'deg' });
 	});
 
 	it('refuses a length typed as an angle, and what no bevel can be', () => {
-		expect(parseAngle('3/8 in', { reading: 'bevelAngle' })).toEqual({
+		expect(parseAngle('3/8 in', { reading: quantitySpec('bevelAngle') })).toEqual({
 			ok: false,
 			message: 'Bevel angle: "3/8 in" is a length, not an angle'
 		});
-		expect(parseAngle('95°', { reading: 'bevelAngle' }).ok).toBe(false);
-		expect(parseAngle('90°', { reading: 'bevelAngle' }).ok).toBe(true);
-		expect(parseAngle('-5°', { reading: 'bevelAngle' }).ok).toBe(false);
+		expect(parseAngle('95°', { reading: quantitySpec('bevelAngle') }).ok).toBe(false);
+		expect(parseAngle('90°', { reading: quantitySpec('bevelAngle') }).ok).toBe(true);
+		expect(parseAngle('-5°', { reading: quantitySpec('bevelAngle') }).ok).toBe(false);
 		expect(parseAngle('steep').ok).toBe(false);
 	});
 });

@@ -2,25 +2,38 @@
  * Reading what inspectors type off their gauges, and writing it back the way they read it.
  * Lengths are held in millimetres and angles in degrees; 1 in = 25.4 mm exactly.
  */
-import {
-	quantitySpec,
-	type JointLengthField,
-	type QuantityKind,
-	type QuantitySpec,
-	type ReadingId
-} from './acceptance/readings';
-
-export type UnitSystem = 'imperial' | 'metric';
+import type { UnitSystem } from './domain';
+export type { UnitSystem };
 export type TypedUnit = 'in' | 'mm' | 'deg';
 
 export const MM_PER_INCH = 25.4;
+
+export type QuantityKind = 'length' | 'angle';
+
+export interface PlausibleRange {
+	/** mm for lengths, degrees for angles */
+	min: number;
+	max: number;
+	/** true where zero means "no weld" or "no part" rather than a reading of nothing */
+	minExclusive?: boolean;
+}
+
+/** What is being typed: its name in messages and the values that are plausible for it. */
+export interface QuantitySpec {
+	label: string;
+	kind: QuantityKind;
+	plausible: PlausibleRange;
+}
 
 export type ParsedQuantity =
 	{ ok: true; value: number; text: string; unit: TypedUnit } | { ok: false; message: string };
 
 export interface ParseOptions {
-	/** the reading or joint field being typed: names it in messages and sets what is plausible */
-	reading?: ReadingId | JointLengthField | QuantitySpec;
+	/**
+	 * the reading or joint field being typed (`quantitySpec(id)` from the acceptance readings):
+	 * names it in messages and sets what is plausible
+	 */
+	reading?: QuantitySpec;
 }
 
 export interface LengthParseOptions extends ParseOptions {
@@ -83,8 +96,7 @@ function readNumber(text: string): number | undefined {
 }
 
 function specFor(kind: QuantityKind, reading: ParseOptions['reading']): QuantitySpec {
-	const spec = typeof reading === 'string' ? quantitySpec(reading) : reading;
-	if (spec) return spec;
+	if (reading) return reading;
 	return {
 		label: kind === 'length' ? 'Length' : 'Angle',
 		kind,

@@ -62,7 +62,8 @@ function urlOf(e: Endpoint, ids: Record<string, string>): string {
 			.map((s) => s.replace(/^\[(\w+)(=\w+)?\]$/, (_, name: string) => ids[name] ?? '1'))
 			.join('/') || '';
 	const url = '/' + pathname;
-	return e.action ? `${url}?/${e.action}` : url;
+	// The default action is posted to the page itself: `?/default` is a reserved name (400).
+	return e.action && e.action !== 'default' ? `${url}?/${e.action}` : url;
 }
 
 const endpoints = discover();

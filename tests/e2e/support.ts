@@ -1,9 +1,35 @@
+import path from 'node:path';
+import Database from 'better-sqlite3';
 import { expect, request as newRequest, type APIRequestContext, type Page } from '@playwright/test';
 import { DEMO_PASSWORD, DEMO_USERS } from '../../src/lib/server/demo/scenario';
 
 export { DEMO_PASSWORD, DEMO_USERS };
 
 export const BASE_URL = `http://localhost:${process.env.E2E_PORT || 4173}`;
+/** The test server's data folder (playwright.config.ts): its database and uploads. */
+export const DATA_DIR = path.resolve(`test-results/e2e-${process.env.E2E_PORT || 4173}`);
+
+/** The test server's database, opened read-only beside it (WAL lets both read at once). */
+export function readDatabase<T>(read: (db: Database.Database) => T): T {
+	const db = new Database(path.join(DATA_DIR, 'tacksheet.db'), { readonly: true });
+	try {
+		return read(db);
+	} finally {
+		db.close();
+	}
+}
+
+/** The newest message the mail stand-in kept for an address, and how many it has. */
+export function latestMail(to: string): { text: string; count: number } | undefined {
+	return readDatabase((db) => {
+		const row = db
+			.prepare(
+				'select text, (select count(*) from mail_messages where "to" = ?) as count from mail_messages where "to" = ? order by id desc limit 1'
+			)
+			.get(to, to) as { text: string; count: number } | undefined;
+		return row;
+	});
+}
 
 /** An HTTP client signed in the way a script would: a form post to Auth.js's credentials callback. */
 export async function signedInClient(
@@ -45,4 +71,17 @@ export async function pickDrawing(page: Page, number: string, label = 'Drawing (
 		.getByRole('option', { name: exact })
 		.click();
 	await expect(page.getByTestId('drawing-chip').filter({ hasText: number })).toBeVisible();
+}
+
+/** Waits until the mail stand-in has kept more than `seen` messages for an address (SMTP is async). */
+export async function mailAfter(
+	to: string,
+	seen: number
+): Promise<{ text: string; count: number }> {
+	for (let waited = 0; waited < 15_000; waited += 100) {
+		const mail = latestMail(to);
+		if (mail && mail.count > seen) return mail;
+		await new Promise((r) => setTimeout(r, 100));
+	}
+	throw new Error(`no new mail for ${to}`);
 }

@@ -1,6 +1,6 @@
 /**
  * A project's own criteria sets: the module and the API routes against a real SQLite file with
- * the demo job (LBM-20, an inch project). The base is ASME B31.3-2018 normal fluid service,
+ * an inch project made by the test factory. The base is ASME B31.3-2018 normal fluid service,
  * Table 341.3.2 criterion H: undercut ≤ 1 mm (1/32 in) and ≤ Tw/4, the lesser governing
  * (reference/standards.md §2a). The project limit of 1/64 in stands for a stricter clause of
  * an invented project specification, "PS-101".
@@ -8,7 +8,6 @@
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as criteriaSets from '$lib/server/criteria-sets';
 import * as inspections from '$lib/server/inspections';
 import * as joints from '$lib/server/joints';
@@ -25,7 +24,7 @@ import {
 } from '../../src/routes/api/projects/[projectId=id]/criteria-sets/+server';
 import { GET as getSet } from '../../src/routes/api/projects/[projectId=id]/criteria-sets/[setId]/+server';
 import { POST as evaluatePost } from '../../src/routes/api/acceptance/evaluate/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject, type MadeProject } from '../fixtures/projects';
 import { weldJoint } from '../fixtures/welders';
 import { CLEAN, FITUP } from '../fixtures/readings';
 
@@ -36,14 +35,17 @@ let inspectorId: string;
 let foremanId: string;
 let projectId: number;
 let revisionId: number;
+let members: MadeProject['users'];
+/** A project our inspector is not a member of. */
+let otherProject: number;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	adminId = demoUserId('admin@tacksheet.test');
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1105'));
-}, 120_000);
+	const job = await makeProject();
+	members = job.users;
+	({ admin: adminId, inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+	otherProject = (await makeProject({ units: 'metric' })).projectId;
+});
 
 const inches = (value: number) => value * 25.4;
 
@@ -77,6 +79,7 @@ function weldedJoint(criteriaSetId: string) {
 	inspections.record(
 		joint.id,
 		recordInspectionSchema.parse({
+			version: joints.row(joint.id)!.version,
 			stage: 'fitup',
 			readings: FITUP,
 			decision: 'accept'
@@ -91,6 +94,7 @@ function visual(jointId: number, undercutDepth: string, decision: 'accept' | 're
 	return inspections.record(
 		jointId,
 		recordInspectionSchema.parse({
+			version: joints.row(jointId)!.version,
 			stage: 'visual',
 			readings: { ...CLEAN, undercutDepth },
 			decision
@@ -309,14 +313,10 @@ describe('who may change criteria, and bad input', () => {
 		expect(post).toEqual({ access: 'project', action: 'criteria.manage' });
 		const page = ruleFor('/(app)/projects/[projectId=id]/settings/criteria', 'GET', '');
 		expect(page).toEqual({ access: 'project', action: 'criteria.manage' });
-		for (const email of [
-			'inspector@tacksheet.test',
-			'doccon@tacksheet.test',
-			'viewer@tacksheet.test'
-		]) {
-			const principal = users.principal(demoUserId(email))!;
-			expect(can(principal, 'criteria.manage', projectId), email).toBe(false);
-			expect(can(principal, 'project.read', projectId), email).toBe(true);
+		for (const role of ['inspector', 'doc_controller', 'viewer'] as const) {
+			const principal = users.principal(members[role])!;
+			expect(can(principal, 'criteria.manage', projectId), role).toBe(false);
+			expect(can(principal, 'project.read', projectId), role).toBe(true);
 		}
 		expect(can(users.principal(adminId)!, 'criteria.manage', projectId)).toBe(true);
 	});
@@ -392,6 +392,7 @@ describe('who may change criteria, and bad input', () => {
 			inspections.record(
 				joint.id,
 				recordInspectionSchema.parse({
+					version: joints.row(joint.id)!.version,
 					stage: 'fitup',
 					readings: { rootOpening: '1/8' },
 					decision: 'accept'
@@ -440,12 +441,7 @@ describe('POST /api/acceptance/evaluate with a project', () => {
 		expect(listed).toMatch(/asme-b31\.3-normal/);
 		expect(listed).not.toMatch(/ps-101-piping/);
 
-		const outsider = demoUserId('inspector2@tacksheet.test');
-		const otherProject = db
-			.select()
-			.from(schema.projects)
-			.where(eq(schema.projects.code, 'VFT-3'))
-			.get()!.id;
+		const outsider = inspectorId;
 		const hidden = await evaluateAs(outsider, { ...request, projectId: otherProject });
 		expect(hidden).toMatchObject({ status: 404, body: { field: 'projectId' } });
 	});

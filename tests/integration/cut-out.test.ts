@@ -1,13 +1,12 @@
 /**
  * Cut-outs and corrections on the joint card, through the server modules and the API routes,
- * against a real SQLite file with the demo job. Limits are ASME B31.3-2018 normal fluid
+ * against a real SQLite file with a project made by the test factory. Limits are ASME B31.3-2018 normal fluid
  * service as the engine's set gives them (reference/standards.md §2): undercut at most the
  * lesser of 1 mm (1/32 in) and Tw/4, Table 341.3.2 criterion H.
  */
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it, vi } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as audit from '$lib/server/audit';
@@ -19,7 +18,7 @@ import { recordInspectionSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import { POST as postCutOut } from '../../src/routes/api/joints/[jointId=id]/cut-out/+server';
 import { POST as postInspection } from '../../src/routes/api/joints/[jointId=id]/inspections/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject, type MadeProject } from '../fixtures/projects';
 import { weldJoint } from '../fixtures/welders';
 import { FITUP, OUTSIDE, WITHIN } from '../fixtures/readings';
 import { countsTable, directCounts } from '../fixtures/state-counts';
@@ -31,13 +30,14 @@ let foremanId: string;
 let projectId: number;
 let drawingId: number;
 let revisionId: number;
+let members: MadeProject['users'];
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, drawingId, revisionId } = demoDrawing('LBM-20-ISO-1105'));
-}, 120_000);
+	const job = await makeProject();
+	members = job.users;
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, drawingId, revisionId } = job.drawing);
+});
 
 // Factories ----------------------------------------------------------------------------------
 
@@ -71,7 +71,11 @@ function newJoint(fields: Partial<JointFields> = {}, number?: string) {
 }
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 /** A joint welded and rejected at visual: in repair. */
 function jointInRepair(fields: Partial<JointFields> = {}, number?: string) {
@@ -304,16 +308,11 @@ describe('cutting out a joint', () => {
 			access: 'project',
 			action: 'joint.cutout'
 		});
-		const principal = (email: string) => users.principal(demoUserId(email))!;
-		expect(can(principal('inspector@tacksheet.test'), 'joint.cutout', projectId)).toBe(true);
-		expect(can(principal('admin@tacksheet.test'), 'joint.cutout', projectId)).toBe(true);
-		for (const email of [
-			'foreman@tacksheet.test',
-			'doccon@tacksheet.test',
-			'turnover@tacksheet.test',
-			'viewer@tacksheet.test'
-		]) {
-			expect(can(principal(email), 'joint.cutout', projectId), email).toBe(false);
+		const principal = (role: keyof MadeProject['users']) => users.principal(members[role])!;
+		expect(can(principal('inspector'), 'joint.cutout', projectId)).toBe(true);
+		expect(can(principal('admin'), 'joint.cutout', projectId)).toBe(true);
+		for (const role of ['foreman', 'doc_controller', 'turnover', 'viewer'] as const) {
+			expect(can(principal(role), 'joint.cutout', projectId), role).toBe(false);
 		}
 	});
 });

@@ -10,7 +10,7 @@ import { getDocument, Util } from 'pdfjs-dist/legacy/build/pdf.mjs';
 import { db, schema } from '$lib/server/db';
 import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as exports from '$lib/server/exports';
-import * as joints from '$lib/server/joints';
+import * as pinRows from '$lib/server/pins';
 import * as storage from '$lib/server/storage';
 import { config } from '$lib/server/config';
 import { resolve as resolveScope } from '$lib/server/export/scope';
@@ -188,7 +188,7 @@ describe('a turnover set of the demo project', () => {
 		let checked = 0;
 		let rotatedChecked = 0;
 		for (const revision of revisions) {
-			const pins = joints.pinsOf(revision.id);
+			const pins = pinRows.ofRevision(revision.id);
 			for (const sheet of revision.sheets) {
 				pageNo++;
 				const page = await pdf.getPage(pageNo);

@@ -1,11 +1,11 @@
 /**
  * Inspection requests (hold points): POST /api/projects/{id}/inspection-requests and the
- * module, against a real SQLite file with the demo job and the local mail stand-in.
+ * module, against a real SQLite file with a project made by the test factory (two inspectors)
+ * and the local mail stand-in.
  */
-import { and, eq, inArray } from 'drizzle-orm';
+import { eq, inArray } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as inspectionRequests from '$lib/server/inspection-requests';
@@ -17,40 +17,38 @@ import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspectio
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { POST } from '../../src/routes/api/projects/[projectId=id]/inspection-requests/+server';
 import { qualifiedWelder } from '../fixtures/welders';
+import { makeProject } from '../fixtures/projects';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
 let projectId: number;
 let revisionId: number;
-let drawing: typeof schema.drawings.$inferSelect;
+let drawing: { id: number; number: string };
 let inspectorId: string;
 let foremanId: string;
 let inspectorEmails: string[];
 let stamp: string;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	const userId = (email: string) =>
-		db.select().from(schema.users).where(eq(schema.users.email, email)).get()!.id;
-	inspectorId = userId('inspector@tacksheet.test');
-	foremanId = userId('foreman@tacksheet.test');
-	drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-		.get()!;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+	drawing = { id: job.drawing.drawingId, number: job.drawing.number };
+	users.invite(
+		{
+			email: 'second-inspector@factory.test',
+			name: 'Second inspector',
+			projectId,
+			role: 'inspector'
+		},
+		job.users.admin
+	);
 	inspectorEmails = users
 		.members(projectId)
 		.filter((m) => m.role === 'inspector')
 		.map((m) => m.email);
 	stamp = qualifiedWelder(projectId, 'RQ');
-}, 120_000);
+});
 
 let placed = 0;
 /** A joint awaiting fit-up, or welded and awaiting visual. */
@@ -69,17 +67,23 @@ function jointIn(state: 'awaiting_fitup' | 'awaiting_visual') {
 	if (state === 'awaiting_visual') {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 	}
 	return joints.row(joint.id)!;
@@ -93,7 +97,7 @@ async function post(body: unknown) {
 			body: JSON.stringify(body)
 		}),
 		url: new URL(`http://localhost/api/projects/${projectId}/inspection-requests`),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }
@@ -175,7 +179,12 @@ describe('requesting an inspection', () => {
 			.run();
 		const { inspection } = inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'visual', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'visual',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 		const closed = db

@@ -1,12 +1,11 @@
 /**
  * Recording inspections: the module and POST/GET /api/joints/{id}/inspections against a real
- * SQLite file with the demo job. Limits are ASME B31.3-2018 normal fluid service, as the
+ * SQLite file with a project made by the test factory. Limits are ASME B31.3-2018 normal fluid service, as the
  * engine's set gives them (reference/standards.md §2).
  */
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as events from '$lib/server/events';
@@ -24,7 +23,7 @@ import {
 	GET as listWelds,
 	POST as postWeld
 } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject } from '../fixtures/projects';
 import { qualifiedWelder, weldJoint } from '../fixtures/welders';
 import { CLEAN, FITUP, OUTSIDE, WITHIN } from '../fixtures/readings';
 
@@ -36,11 +35,10 @@ let projectId: number;
 let revisionId: number;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1105'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+});
 
 // Factories ----------------------------------------------------------------------------------
 
@@ -68,7 +66,11 @@ function newJoint(fields: Partial<JointFields> = {}) {
 }
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 /** The cached state column says what the records say. */
 function expectCacheAgrees(jointId: number) {
@@ -89,11 +91,18 @@ function request(path: string, method: 'GET' | 'POST', body?: unknown) {
 	});
 }
 
+/** The body as the joint card sends it: with the joint's version as last read, unless given. */
+function withVersion(jointId: number, body: unknown) {
+	return body === undefined
+		? undefined
+		: { version: joints.row(jointId)?.version, ...(body as object) };
+}
+
 async function call(handler: unknown, jointId: number, userId: string, body?: unknown) {
 	const method = body === undefined ? 'GET' : 'POST';
 	const response = await (handler as Handler)({
 		params: { jointId: String(jointId) },
-		request: request(`/api/joints/${jointId}`, method, body),
+		request: request(`/api/joints/${jointId}`, method, withVersion(jointId, body)),
 		locals: { user: users.principal(userId) }
 	} as never);
 	return { status: response.status, body: await response.json() };
@@ -211,7 +220,7 @@ describe('a joint from fit-up to acceptance, through the API', () => {
 			['visual', 'reject'],
 			['fitup', 'accept']
 		]);
-		expect(history.body.inspections[0].inspector).toBe('Ines Varga');
+		expect(history.body.inspections[0].inspector).toBe(users.byId(inspectorId)!.name);
 		const weldLog = await call(listWelds, joint.id, foremanId);
 		expect(weldLog.body.welds.map((w: { label: string }) => w.label)).toEqual([
 			joint.number,

@@ -6,8 +6,8 @@
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
+import * as users from '$lib/server/users';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
 import * as weldLog from '$lib/server/weld-log';
@@ -15,7 +15,8 @@ import * as welds from '$lib/server/welds';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { countsTable, directCounts } from '../fixtures/state-counts';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 import { qualifiedWelder } from '../fixtures/welders';
 
 let projectId: number;
@@ -23,13 +24,20 @@ let revisionId: number;
 let drawingId: number;
 let inspectorId: string;
 let foremanId: string;
+let other: MadeDrawing;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId, drawingId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// Joints on two drawings in two areas before the tests change any.
+	other = await makeDrawing(job, { area: 'Area 2' });
+	for (const drawing of [job.drawing, other]) {
+		makeJoint(drawing);
+		fitup(makeJoint(drawing).joint.id, 'accept');
+		fitup(makeJoint(drawing).joint.id, 'reject');
+	}
+});
 
 let placed = 0;
 function placeJoint() {
@@ -55,7 +63,12 @@ function placeJoint() {
 const fitup = (jointId: number, decision: 'accept' | 'reject') =>
 	inspections.record(
 		jointId,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision }),
+		recordInspectionSchema.parse({
+			version: joints.row(jointId)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision
+		}),
 		inspectorId
 	);
 
@@ -84,7 +97,7 @@ function summaryByArea() {
 }
 
 describe('per-drawing state counts', () => {
-	it('equal a direct count after the demo seed', () => {
+	it('equal a direct count for joints placed, fitted up and rejected through the app', () => {
 		expect(countsTable()).toEqual(directCounts());
 	});
 
@@ -107,11 +120,12 @@ describe('per-drawing state counts', () => {
 		welds.record(
 			a.id,
 			recordWeldSchema.parse({
+				version: joints.row(a.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		expect(joints.row(a.id)!.state).toBe('awaiting_visual');
 		expect(countsTable()).toEqual(directCounts());
@@ -121,7 +135,6 @@ describe('per-drawing state counts', () => {
 		expect(countsTable()).toEqual(directCounts());
 
 		// No screen moves a joint between drawings yet; the triggers follow it all the same.
-		const other = demoDrawing('LBM-20-ISO-1102');
 		db.update(schema.joints)
 			.set({ drawingId: other.drawingId, number: `${a.number}-MOVED` })
 			.where(eq(schema.joints.id, a.id))

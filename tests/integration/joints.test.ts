@@ -1,36 +1,28 @@
-import { and, eq } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
+import * as pins from '$lib/server/pins';
 import * as events from '$lib/server/events';
 import { deriveJointState } from '$lib/joint-state';
+import { makeDrawing, makeProject, type MadeDrawing } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 
 let userId: string;
 let revisionId: number;
 let projectId: number;
 let drawingId: number;
+/** Another drawing of the project, on the same line when the test says so. */
+let other: MadeDrawing;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	userId = db
-		.select()
-		.from(schema.users)
-		.where(eq(schema.users.email, 'inspector@tacksheet.test'))
-		.get()!.id;
-	const drawing = db
-		.select()
-		.from(schema.drawings)
-		.where(eq(schema.drawings.number, 'LBM-20-ISO-1105'))
-		.get()!;
-	drawingId = drawing.id;
-	projectId = drawing.projectId;
-	revisionId = db
-		.select()
-		.from(schema.revisions)
-		.where(and(eq(schema.revisions.drawingId, drawing.id), eq(schema.revisions.status, 'current')))
-		.get()!.id;
-}, 120_000);
+	const job = await makeProject();
+	userId = job.users.inspector;
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// A drawing already under way: shop welds 1 to 12.
+	for (let n = 0; n < 12; n++) makeJoint(job.drawing);
+	other = await makeDrawing(job);
+});
 
 function numbersOnDrawing() {
 	return db
@@ -102,10 +94,10 @@ describe('moving, editing and voiding', () => {
 			{ revisionId, pageIndex: 0, x: 200, y: 200, joint: {} },
 			userId
 		);
-		const moved = joints.movePin(pin.id, { x: 210, y: 190, version: joint.version }, userId);
+		const moved = pins.move(pin.id, { x: 210, y: 190, version: joint.version }, userId);
 		expect([moved.pin.x, moved.pin.y]).toEqual([210, 190]);
 		expect(moved.version).toBe(joint.version + 1);
-		expect(() => joints.movePin(pin.id, { x: 0, y: 0, version: joint.version }, userId)).toThrow(
+		expect(() => pins.move(pin.id, { x: 0, y: 0, version: joint.version }, userId)).toThrow(
 			expect.objectContaining({ status: 409, field: 'version' })
 		);
 		const history = joints.detail(joint.id)!.changes.map((c) => c.action);
@@ -156,7 +148,7 @@ describe('moving, editing and voiding', () => {
 
 describe('pins of a revision', () => {
 	it('lists every pin with its joint state, numbers in reading order', () => {
-		const items = joints.pinsOf(revisionId);
+		const items = pins.ofRevision(revisionId);
 		expect(items.length).toBeGreaterThan(10);
 		const keys = items.map((i) => i.number);
 		expect(keys.indexOf('5')).toBeLessThan(keys.indexOf('5A'));
@@ -192,18 +184,8 @@ describe('numbering by line', () => {
 			userId
 		).joint;
 		expect(Number(first.number)).toBeGreaterThan(1);
-		const other = db
-			.select()
-			.from(schema.drawings)
-			.where(eq(schema.drawings.number, 'LBM-20-ISO-1104'))
-			.get()!;
-		const otherRevision = db
-			.select()
-			.from(schema.revisions)
-			.where(and(eq(schema.revisions.drawingId, other.id), eq(schema.revisions.status, 'current')))
-			.get()!;
 		const second = joints.place(
-			{ revisionId: otherRevision.id, pageIndex: 0, x: 60, y: 60, joint: { line } },
+			{ revisionId: other.revisionId, pageIndex: 0, x: 60, y: 60, joint: { line } },
 			userId
 		).joint;
 		expect(Number(second.number)).toBe(Number(first.number) + 1);

@@ -48,7 +48,11 @@ let placed = 0;
 let lines = 0;
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 /** A butt joint (6 in SCH 40, ASME B31.3 normal: 5 % RT) on a line of its own. */
 function newJoint(line: string, fields: Record<string, unknown> = {}) {
@@ -78,8 +82,12 @@ function weldAndAccept(jointId: number, stamp: string, weldedOn = '2025-06-02') 
 	inspect(jointId, { stage: 'fitup', readings: FITUP, decision: 'accept' });
 	welds.record(
 		jointId,
-		recordWeldSchema.parse({ weldedOn, welders: { root: stamp, fill: stamp, cap: stamp } }),
-		{ id: foremanId, isAdmin: false }
+		recordWeldSchema.parse({
+			version: joints.row(jointId)!.version,
+			weldedOn,
+			welders: { root: stamp, fill: stamp, cap: stamp }
+		}),
+		users.principal(foremanId)!
 	);
 	return inspect(jointId, { stage: 'visual', readings: CLEAN, decision: 'accept' });
 }
@@ -144,6 +152,7 @@ function rt(jointId: number, decision: 'accept' | 'reject', extra: Record<string
 		request: jsonRequest(`/api/joints/${jointId}/inspections`, 'POST', {
 			stage: 'nde',
 			method: 'RT',
+			version: joints.row(jointId)!.version,
 			decision,
 			reportNo: `RT-T-${jointId}`,
 			technician: 'T. Example (Level II)',
@@ -228,8 +237,12 @@ describe('lots formed by the project rule', () => {
 			inspect(joint.id, { stage: 'fitup', readings: {}, decision: 'accept' });
 			welds.record(
 				joint.id,
-				recordWeldSchema.parse({ weldedOn: '2025-06-02', welders: { root: stamp } }),
-				{ id: foremanId, isAdmin: false }
+				recordWeldSchema.parse({
+					version: joints.row(joint.id)!.version,
+					weldedOn: '2025-06-02',
+					welders: { root: stamp }
+				}),
+				users.principal(foremanId)!
 			);
 			expect(lotOf(joint.id), `joint ${joint.number}`).toBeUndefined();
 		}
@@ -514,8 +527,12 @@ describe('progressive examination (ASME B31.3-2018 341.3.4)', () => {
 		const before = selected(lot.lotId).length;
 		welds.record(
 			lot.sample,
-			recordWeldSchema.parse({ weldedOn: '2025-06-09', welders: { root: lot.stamps[0] } }),
-			{ id: foremanId, isAdmin: false }
+			recordWeldSchema.parse({
+				version: joints.row(lot.sample)!.version,
+				weldedOn: '2025-06-09',
+				welders: { root: lot.stamps[0] }
+			}),
+			users.principal(foremanId)!
 		);
 		inspect(lot.sample, { stage: 'visual', readings: CLEAN, decision: 'accept' });
 		// The repair waits for RT again: the same method, the same selection.

@@ -14,6 +14,7 @@ import * as inspections from '$lib/server/inspections';
 import * as mail from '$lib/server/mail';
 import * as nde from '$lib/server/nde';
 import * as weldLog from '$lib/server/weld-log';
+import * as users from '$lib/server/users';
 import * as welds from '$lib/server/welds';
 import { deriveJointState } from '$lib/joint-state';
 import { circumferenceMm } from '$lib/nde/repair-rate';
@@ -42,17 +43,22 @@ let placed = 0;
 let lines = 0;
 
 const inspect = (jointId: number, body: unknown) =>
-	inspections.record(jointId, recordInspectionSchema.parse(body), inspectorId);
+	inspections.record(
+		jointId,
+		recordInspectionSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		inspectorId
+	);
 
 function weldAndAccept(jointId: number, stamp: string) {
 	inspect(jointId, { stage: 'fitup', readings: FITUP, decision: 'accept' });
 	welds.record(
 		jointId,
 		recordWeldSchema.parse({
+			version: joints.row(jointId)!.version,
 			weldedOn: '2025-06-02',
 			welders: { root: stamp, fill: stamp, cap: stamp }
 		}),
-		{ id: foremanId, isAdmin: false }
+		users.principal(foremanId)!
 	);
 	inspect(jointId, { stage: 'visual', readings: CLEAN, decision: 'accept' });
 }

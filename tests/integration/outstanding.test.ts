@@ -1,12 +1,11 @@
 /**
  * The outstanding board: GET /api/projects/{id}/outstanding and its module against a real
- * SQLite file with the demo job. Counts are checked against direct SQL counts, owed lists
+ * SQLite file with a project made by the test factory. Counts are checked against direct SQL counts, owed lists
  * against their order (oldest in the state first) and the filters against what they name.
  */
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as outstanding from '$lib/server/outstanding';
@@ -16,7 +15,8 @@ import { OWED_STATES } from '$lib/outstanding';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { outstandingQuerySchema } from '$lib/schemas/outstanding';
 import { GET } from '../../src/routes/api/projects/[projectId=id]/outstanding/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeDrawing, makeProject } from '../fixtures/projects';
+import { makeJoint } from '../fixtures/joints';
 import { qualifiedWelder } from '../fixtures/welders';
 
 type Handler = (event: never) => Response | Promise<Response>;
@@ -28,11 +28,26 @@ let inspectorId: string;
 let foremanId: string;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId, drawingId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId, drawingId } = job.drawing);
+	// Joints on two drawings in two areas, awaiting fit-up and ready to weld, for the counts.
+	const other = await makeDrawing(job, { area: 'Area 2', system: 'Utility' });
+	for (const drawing of [job.drawing, other]) {
+		makeJoint(drawing);
+		const { joint } = makeJoint(drawing);
+		inspections.record(
+			joint.id,
+			recordInspectionSchema.parse({
+				version: joint.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
+			inspectorId
+		);
+	}
+});
 
 const query = (q: Record<string, string | number> = {}) => outstandingQuerySchema.parse(q);
 
@@ -58,7 +73,12 @@ function placeJoint(accepted: boolean) {
 	if (accepted) {
 		inspections.record(
 			joint.id,
-			recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
+				stage: 'fitup',
+				readings: {},
+				decision: 'accept'
+			}),
 			inspectorId
 		);
 	}
@@ -167,11 +187,12 @@ describe('filters', () => {
 		welds.record(
 			joint.id,
 			recordWeldSchema.parse({
+				version: joints.row(joint.id)!.version,
 				weldedOn: '2025-06-10',
 				process: 'GTAW',
 				welders: { root: stamp, fill: stamp, cap: stamp }
 			}),
-			{ id: foremanId, isAdmin: false }
+			users.principal(foremanId)!
 		);
 		const board = outstanding.board(projectId, query({ welder: welder.id }));
 		const rows = [...board.owed.foreman, ...board.owed.inspector].flatMap((g) => g.items);
@@ -185,7 +206,7 @@ describe('GET /api/projects/{id}/outstanding', () => {
 	const get = async (search: string) => {
 		const response = await (GET as unknown as Handler)({
 			url: new URL(`http://localhost/api/projects/${projectId}/outstanding${search}`),
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		return { status: response.status, body: await response.json() };
 	};

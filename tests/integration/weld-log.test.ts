@@ -9,36 +9,13 @@ import * as projects from '$lib/server/projects';
 import { filled, weldLogFilter, weldLogQuery } from '$lib/schemas/weld-log';
 import { JOINT_STATES, displayWeldNumber } from '$lib/joint-state';
 import type { WeldLogRow } from '$lib/weld-log';
+import { readCsv } from '../fixtures/csv';
 
 const j = schema.joints;
 const d = schema.drawings;
 let lbm: number;
 
 const query = (q: Record<string, string> = {}) => weldLogQuery.parse(filled(q));
-
-/** A small RFC 4180 reader: quoted fields, doubled quotes, CRLF records. */
-function readCsv(text: string): string[][] {
-	const records: string[][] = [];
-	let record: string[] = [];
-	let field = '';
-	let quoted = false;
-	for (let n = 0; n < text.length; n++) {
-		const c = text[n];
-		if (quoted) {
-			if (c === '"' && text[n + 1] === '"') ((field += '"'), n++);
-			else if (c === '"') quoted = false;
-			else field += c;
-		} else if (c === '"') quoted = true;
-		else if (c === ',') (record.push(field), (field = ''));
-		else if (c === '\r' && text[n + 1] === '\n') {
-			record.push(field);
-			records.push(record);
-			((record = []), (field = ''), n++);
-		} else field += c;
-	}
-	if (field || record.length) records.push([...record, field]);
-	return records;
-}
 
 async function collect(write: (stream: PassThrough) => Promise<void>): Promise<Buffer> {
 	const stream = new PassThrough();

@@ -1,13 +1,12 @@
 /**
  * The welder register: GET/POST /api/projects/{id}/welders and the module, against a real
- * SQLite file with the demo job. Continuity is the six-month rule of ASME BPVC Section IX
+ * SQLite file with a project made by the test factory. Continuity is the six-month rule of ASME BPVC Section IX
  * QW-322.1 and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006
  * edition), reference/standards.md §7; the register reuses welds.ts's rule for it.
  */
 import { eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as welders from '$lib/server/welders';
@@ -15,7 +14,7 @@ import * as welds from '$lib/server/welds';
 import * as users from '$lib/server/users';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import { GET, POST } from '../../src/routes/api/projects/[projectId=id]/welders/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject } from '../fixtures/projects';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,11 +24,10 @@ let inspectorId: string;
 let foremanId: string;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+});
 
 async function post(body: unknown) {
 	const response = await (POST as unknown as Handler)({
@@ -38,7 +36,7 @@ async function post(body: unknown) {
 			headers: { 'content-type': 'application/json' },
 			body: JSON.stringify(body)
 		}),
-		locals: { user: users.principal(foremanId), projectId }
+		locals: { user: users.principal(foremanId)!, projectId }
 	} as never);
 	return { status: response.status, body: await response.json() };
 }
@@ -71,7 +69,7 @@ describe('adding a welder', () => {
 
 	it('keeps the GET shape { items } and adds the lapsing list', async () => {
 		const response = await (GET as unknown as Handler)({
-			locals: { user: users.principal(foremanId), projectId }
+			locals: { user: users.principal(foremanId)!, projectId }
 		} as never);
 		const body = await response.json();
 		expect(Array.isArray(body.items)).toBe(true);
@@ -179,12 +177,24 @@ describe("a welder's record", () => {
 			inspectorId
 		);
 		const inspect = (body: unknown) =>
-			inspections.record(joint.id, recordInspectionSchema.parse(body), inspectorId);
+			inspections.record(
+				joint.id,
+				recordInspectionSchema.parse({
+					version: joints.row(joint.id)!.version,
+					...(body as object)
+				}),
+				inspectorId
+			);
 		const weld = (weldedOn: string) =>
 			welds.record(
 				joint.id,
-				recordWeldSchema.parse({ weldedOn, process: 'GTAW', welders: { root: 'RR1' } }),
-				{ id: foremanId, isAdmin: false }
+				recordWeldSchema.parse({
+					version: joints.row(joint.id)!.version,
+					weldedOn,
+					process: 'GTAW',
+					welders: { root: 'RR1' }
+				}),
+				users.principal(foremanId)!
 			);
 		inspect({ stage: 'fitup', readings: {}, decision: 'accept' });
 		weld('2025-06-10');

@@ -1,13 +1,12 @@
 /**
  * Recording welds: the module and POST/GET /api/joints/{id}/welds against a real SQLite file
- * with the demo job. Welder continuity is the six-month rule of ASME BPVC Section IX QW-322.1
+ * with projects made by the test factory. Welder continuity is the six-month rule of ASME BPVC Section IX QW-322.1
  * and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006 edition), see
  * reference/standards.md §7.
  */
 import { and, eq } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { db, schema } from '$lib/server/db';
-import { seedIfEmpty } from '$lib/server/demo/seed';
 import * as joints from '$lib/server/joints';
 import * as inspections from '$lib/server/inspections';
 import * as welds from '$lib/server/welds';
@@ -16,7 +15,9 @@ import { deriveJointState } from '$lib/joint-state';
 import { recordInspectionSchema, recordWeldSchema } from '$lib/schemas/inspection';
 import type { JointFields } from '$lib/schemas/joint';
 import { GET, POST } from '../../src/routes/api/joints/[jointId=id]/welds/+server';
-import { demoDrawing, demoUserId } from '../fixtures/demo';
+import { makeProject } from '../fixtures/projects';
+import { qualifiedWelder } from '../fixtures/welders';
+import { stampKey } from '$lib/domain';
 
 type Handler = (event: never) => Response | Promise<Response>;
 
@@ -25,16 +26,17 @@ let foremanId: string;
 let adminId: string;
 let projectId: number;
 let revisionId: number;
-const foreman = () => ({ id: foremanId, isAdmin: false });
-const admin = () => ({ id: adminId, isAdmin: true });
+/** A welder's stamp on another project. */
+let elsewhereStamp: string;
+const foreman = () => users.principal(foremanId)!;
+const admin = () => users.principal(adminId)!;
 
 beforeAll(async () => {
-	await seedIfEmpty();
-	inspectorId = demoUserId('inspector@tacksheet.test');
-	foremanId = demoUserId('foreman@tacksheet.test');
-	adminId = demoUserId('admin@tacksheet.test');
-	({ projectId, revisionId } = demoDrawing('LBM-20-ISO-1104'));
-}, 120_000);
+	const job = await makeProject();
+	({ inspector: inspectorId, foreman: foremanId, admin: adminId } = job.users);
+	({ projectId, revisionId } = job.drawing);
+	elsewhereStamp = qualifiedWelder((await makeProject({ units: 'metric' })).projectId, 'EL');
+});
 
 // Factories ----------------------------------------------------------------------------------
 
@@ -61,7 +63,12 @@ function readyJoint(fields: Partial<JointFields> = {}) {
 	);
 	inspections.record(
 		joint.id,
-		recordInspectionSchema.parse({ stage: 'fitup', readings: {}, decision: 'accept' }),
+		recordInspectionSchema.parse({
+			version: joints.row(joint.id)!.version,
+			stage: 'fitup',
+			readings: {},
+			decision: 'accept'
+		}),
 		inspectorId
 	);
 	return joints.row(joint.id)!;
@@ -79,7 +86,7 @@ function newWelder(qualifications: Qualification[], status: 'active' | 'inactive
 	const stamp = `W${++stamps}`;
 	const id = db
 		.insert(schema.welders)
-		.values({ projectId, stamp, name: `Welder ${stamp}`, status })
+		.values({ projectId, stamp, stampKey: stampKey(stamp), name: `Welder ${stamp}`, status })
 		.returning()
 		.get().id;
 	for (const q of qualifications) {
@@ -110,7 +117,11 @@ function lastUsed(welderId: number, process: string) {
 }
 
 const weld = (jointId: number, body: unknown, user = foreman()) =>
-	welds.record(jointId, recordWeldSchema.parse(body), user);
+	welds.record(
+		jointId,
+		recordWeldSchema.parse({ version: joints.row(jointId)!.version, ...(body as object) }),
+		user
+	);
 
 function expectCacheAgrees(jointId: number) {
 	const cached = joints.row(jointId)!;
@@ -125,7 +136,8 @@ async function post(jointId: number, userId: string, body: unknown) {
 		request: new Request(`http://localhost/api/joints/${jointId}/welds`, {
 			method: 'POST',
 			headers: { 'content-type': 'application/json' },
-			body: JSON.stringify(body)
+			// As the weld form sends it: with the joint's version as last read, unless given.
+			body: JSON.stringify({ version: joints.row(jointId)?.version, ...(body as object) })
 		}),
 		locals: { user: users.principal(userId) }
 	} as never);
@@ -182,7 +194,7 @@ describe('recording a weld', () => {
 			{ pass: 'fill', welderId: fillCap.id, stamp: fillCap.stamp, name: `Welder ${fillCap.stamp}` },
 			{ pass: 'cap', welderId: fillCap.id, stamp: fillCap.stamp, name: `Welder ${fillCap.stamp}` }
 		]);
-		expect(log[0].recordedByName).toBe('Frank Delacourt');
+		expect(log[0].recordedByName).toBe(users.byId(foremanId)!.name);
 	});
 
 	it('moves last use forward only: an earlier weld date leaves it where it is', () => {
@@ -215,6 +227,7 @@ describe('recording a weld', () => {
 		inspections.record(
 			joint.id,
 			recordInspectionSchema.parse({
+				version: joints.row(joint.id)!.version,
 				stage: 'visual',
 				// ASME B31.3-2018 Table 341.3.2 criterion H: Tw = 0.216 in → min(1/32, 0.054) = 1/32 in.
 				readings: { undercutDepth: '1/16' },
@@ -417,15 +430,9 @@ describe('welders refused', () => {
 		expect(unknown.body).toMatchObject({ field: 'welders.cap' });
 		expect(unknown.body.error).toMatch(/No welder with stamp ZZ99/);
 		// A stamp of another project is as unknown as a made-up one.
-		const elsewhere = db
-			.select({ stamp: schema.welders.stamp })
-			.from(schema.welders)
-			.innerJoin(schema.projects, eq(schema.projects.id, schema.welders.projectId))
-			.where(eq(schema.projects.code, 'VFT-3'))
-			.get()!;
 		const foreign = await post(joint.id, foremanId, {
 			weldedOn: '2025-06-02',
-			welders: { root: elsewhere.stamp }
+			welders: { root: elsewhereStamp }
 		});
 		expect(foreign).toMatchObject({ status: 400, body: { field: 'welders.root' } });
 		expect(expectCacheAgrees(joint.id).state).toBe('ready_to_weld');
@@ -461,7 +468,7 @@ describe('an administrator override', () => {
 		const audited = joints.detail(joint.id)!.changes.at(-1)!;
 		expect(audited).toMatchObject({
 			action: 'weld',
-			by: 'Alex Marwood (QC manager)',
+			by: users.byId(adminId)!.name,
 			after: {
 				override: {
 					reason: body.override.reason,

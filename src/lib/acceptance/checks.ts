@@ -2,6 +2,7 @@
  * What each check measures. A criteria set says which checks it makes and with which limits;
  * this says which readings a check reads, at which stage and on which joints by default.
  */
+import { JOINT_KINDS } from '../domain';
 import { filletSizeFromThroat } from './geometry';
 import type { FlagReadingId, LengthReadingId, ReadingId } from './readings';
 import type { CheckId, Derived, JointKind, LengthCheckId, Stage } from './types';
@@ -32,7 +33,7 @@ export interface CheckDefinition {
 	length?: { reading: LengthReadingId; check: LengthCheckId; windowMm?: number };
 }
 
-const ALL_JOINTS: readonly JointKind[] = ['butt', 'fillet', 'socket', 'branch'];
+const ALL_JOINTS: readonly JointKind[] = JOINT_KINDS;
 const GROOVE_JOINTS: readonly JointKind[] = ['butt', 'branch'];
 const FILLET_JOINTS: readonly JointKind[] = ['fillet', 'socket'];
 /** "within any 12 in (300 mm)": the window the undercut length reading covers */

@@ -212,7 +212,7 @@ export function evaluate(
 	if (!oneOf(stages, stage))
 		errors.push({ field: 'stage', message: `Stage must be one of ${stages.join(', ')}` });
 	const resolved = readJoint(joint, units, errors);
-	const parsed = readReadings(readings, units, errors);
+	const { parsed, read } = readReadings(readings, units, errors);
 	if (errors.length > 0 || !resolved) return { ok: false, errors };
 
 	const derived = deriveValues(resolved, parsed);
@@ -275,6 +275,7 @@ export function evaluate(
 	return {
 		ok: true,
 		verdict,
+		readings: read,
 		criteria: {
 			id: set.id,
 			name: set.name,

@@ -8,6 +8,7 @@ import type { ParsedReadings } from './checks';
 import {
 	isReadingId,
 	jointLengthFields,
+	quantitySpec,
 	readingDefinitions,
 	type JointLengthField,
 	type ReadingId
@@ -21,6 +22,7 @@ import {
 	type JointKind,
 	type Loading,
 	type Member,
+	type ReadReading,
 	type ReadingError,
 	type ReadingsInput,
 	type StressDirection
@@ -80,7 +82,7 @@ export function readJoint(
 		if (isBlank(value)) continue;
 		const parsed =
 			typeof value === 'string' || typeof value === 'number'
-				? parseLength(value, { units, reading: field })
+				? parseLength(value, { units, reading: quantitySpec(field) })
 				: { ok: false as const, message: `Joint ${field} must be a length` };
 		if (parsed.ok) resolved.lengths[field] = parsed.value;
 		else errors.push({ field: `joint.${field}`, message: parsed.message });
@@ -98,12 +100,17 @@ function readFlag(value: unknown): boolean | undefined {
 	return YES.includes(answer) ? true : NO.includes(answer) ? false : undefined;
 }
 
+/**
+ * The readings given, parsed once: by id for the checks, and each as the record keeps it
+ * (the text as typed beside its value). Unreadable ones are collected in `errors`.
+ */
 export function readReadings(
 	readings: ReadingsInput,
 	units: UnitSystem,
 	errors: ReadingError[]
-): ParsedReadings {
+): { parsed: ParsedReadings; read: ReadReading[] } {
 	const parsed: Partial<Record<ReadingId, number | boolean>> = {};
+	const read: ReadReading[] = [];
 	for (const [id, value] of Object.entries(readings ?? {})) {
 		if (!isReadingId(id) || isBlank(value)) continue;
 		const { kind, label } = readingDefinitions[id];
@@ -111,7 +118,15 @@ export function readReadings(
 		if (kind === 'boolean') {
 			const flag = readFlag(value);
 			if (flag === undefined) errors.push({ field, message: `${label}: answer yes or no` });
-			else parsed[id] = flag;
+			else {
+				parsed[id] = flag;
+				read.push({
+					id,
+					text: typeof value === 'boolean' ? (value ? 'yes' : 'no') : String(value),
+					value: flag,
+					unit: 'bool'
+				});
+			}
 			continue;
 		}
 		if (typeof value !== 'string' && typeof value !== 'number') {
@@ -121,10 +136,20 @@ export function readReadings(
 		}
 		const result =
 			kind === 'angle'
-				? parseAngle(value, { reading: id })
-				: parseLength(value, { units, reading: id });
-		if (result.ok) parsed[id] = result.value;
-		else errors.push({ field, message: result.message });
+				? parseAngle(value, { reading: quantitySpec(id) })
+				: parseLength(value, { units, reading: quantitySpec(id) });
+		if (!result.ok) {
+			errors.push({ field, message: result.message });
+			continue;
+		}
+		parsed[id] = result.value;
+		const unit = kind === 'angle' ? 'deg' : 'mm';
+		read.push({
+			id,
+			text: typeof value === 'number' ? `${value}${unit === 'deg' ? '°' : ' mm'}` : value,
+			value: result.value,
+			unit
+		});
 	}
-	return parsed as ParsedReadings;
+	return { parsed: parsed as ParsedReadings, read };
 }

@@ -4,22 +4,10 @@
  * they are deliberately wide and are not acceptance limits.
  */
 
-export type QuantityKind = 'length' | 'angle';
+import type { PlausibleRange, QuantityKind, QuantitySpec } from '../units';
+
+export type { PlausibleRange, QuantityKind, QuantitySpec };
 export type ReadingKind = QuantityKind | 'boolean';
-
-export interface PlausibleRange {
-	/** mm for lengths, degrees for angles */
-	min: number;
-	max: number;
-	/** true where zero means "no weld" or "no part" rather than a reading of nothing */
-	minExclusive?: boolean;
-}
-
-export interface QuantitySpec {
-	label: string;
-	kind: QuantityKind;
-	plausible: PlausibleRange;
-}
 
 const INCH = 25.4;
 

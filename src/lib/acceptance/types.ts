@@ -1,14 +1,22 @@
-import type { UnitSystem } from '../units';
+import {
+	GAUGED_STAGES,
+	JOINT_KINDS,
+	type GaugedStage,
+	type JointKind,
+	type UnitSystem,
+	type Verdict
+} from '../domain';
 import type { ReadingId } from './readings';
 
-export const jointKinds = ['butt', 'fillet', 'socket', 'branch'] as const;
-export const stages = ['fitup', 'visual'] as const;
+/** The joints and stages the engine judges: the record's own lists. */
+export const jointKinds = JOINT_KINDS;
+export const stages = GAUGED_STAGES;
 export const loadings = ['static', 'cyclic'] as const;
 export const members = ['primary', 'secondary'] as const;
 export const stressDirections = ['transverse', 'parallel'] as const;
 
-export type JointKind = (typeof jointKinds)[number];
-export type Stage = (typeof stages)[number];
+export type { JointKind };
+export type Stage = GaugedStage;
 export type Loading = (typeof loadings)[number];
 export type Member = (typeof members)[number];
 export type StressDirection = (typeof stressDirections)[number];
@@ -154,8 +162,8 @@ export interface CriteriaSet {
 
 // ---- Results ---------------------------------------------------------------------------------
 
-export type Outcome = 'within' | 'outside' | 'judge';
-export type Verdict = Outcome;
+export type Outcome = Verdict;
+export type { Verdict };
 
 /**
  * One check made from the readings. Lengths are mm, angles degrees. A yes/no reading has unit
@@ -193,8 +201,22 @@ export interface Derived {
 	misalignmentShareOfThickness?: number;
 }
 
+/**
+ * One reading as the engine read it, as the record keeps it: the text as typed (a number sent
+ * in mm or degrees carries its unit, so it reads the same in an inch project), and its value
+ * in mm, degrees or yes/no.
+ */
+export interface ReadReading {
+	id: ReadingId;
+	text: string;
+	value: number | boolean;
+	unit: 'mm' | 'deg' | 'bool';
+}
+
 export interface Evaluation {
 	verdict: Verdict;
+	/** every reading given, as read: what the server stores with the record */
+	readings: ReadReading[];
 	criteria: { id: string; name: string; standard: string; edition: string; version: number };
 	findings: Finding[];
 	/** readings this stage normally needs, for the checks of this set, that were not given */

@@ -1,6 +1,7 @@
 /** Inputs about accounts: one zod schema each, shared by forms, API routes and tests. */
 import { z } from 'zod';
 import { PROJECT_ROLES } from '$lib/permissions';
+import { text } from './text';
 
 export const email = z
 	.string()
@@ -9,9 +10,11 @@ export const email = z
 	.pipe(z.email({ error: 'Enter an e-mail address such as name@company.com.' }));
 
 /** NIST SP 800-63B asks for at least 8; we ask for 12 and no other composition rules. */
+export const PASSWORD_MIN_LENGTH = 12;
+
 export const newPassword = z
 	.string()
-	.min(12, { error: 'Use at least 12 characters.' })
+	.min(PASSWORD_MIN_LENGTH, { error: `Use at least ${PASSWORD_MIN_LENGTH} characters.` })
 	.max(200, { error: 'Use at most 200 characters.' });
 
 export const credentialsSchema = z.object({
@@ -33,16 +36,15 @@ export const changePasswordSchema = z
 	});
 
 export const tokenCreateSchema = z.object({
-	name: z
-		.string()
-		.trim()
-		.min(1, { error: 'Name the token, e.g. "weld log export script".' })
-		.max(80)
+	name: text('The token name', 80, {
+		min: 1,
+		minError: 'Name the token, e.g. "weld log export script".'
+	})
 });
 
 export const inviteSchema = z.object({
 	email,
-	name: z.string().trim().min(1, { error: 'Enter the person’s name.' }).max(120),
+	name: text('The name', 120, { min: 1, minError: 'Enter the person’s name.' }),
 	projectId: z.coerce.number().int().positive().optional(),
 	role: z.enum(PROJECT_ROLES).optional()
 });
@@ -51,3 +53,19 @@ export const membershipSchema = z.object({
 	email,
 	role: z.enum(PROJECT_ROLES, { error: 'Choose a role.' })
 });
+
+/** A member of the project, as the members list names them. */
+const memberId = z
+	.string({ error: 'Choose the member.' })
+	.trim()
+	.min(1, { error: 'Choose the member.' })
+	.max(64, { error: 'Choose the member.' });
+
+/** A member's new role on the project. */
+export const memberRoleSchema = z.object({
+	userId: memberId,
+	role: z.enum(PROJECT_ROLES, { error: 'Choose one of the roles.' })
+});
+
+/** A member taken off the project. */
+export const memberRemoveSchema = z.object({ userId: memberId });

@@ -4,6 +4,7 @@
  * the project's units into the millimetres and degrees the engine judges by.
  */
 import { z } from 'zod';
+import { note, text } from './text';
 import {
 	checkIds,
 	hasLengthPart,
@@ -60,7 +61,7 @@ export const limitOverrideSchema = z.object({
 		.trim()
 		.min(1, { error: 'Name the project specification clause that sets this limit.' })
 		.max(160, { error: 'A clause has at most 160 characters.' }),
-	note: z.string().trim().max(500, { error: 'A note has at most 500 characters.' }).default('')
+	note: note('A note', 500).default('')
 });
 export type LimitOverrideInput = z.input<typeof limitOverrideSchema>;
 
@@ -86,11 +87,10 @@ const overridesSchema = z
 export const criteriaSetSchema = z
 	.object({
 		id: criteriaSetId,
-		name: z
-			.string({ error: 'Name the set, such as "PL-01 process piping".' })
-			.trim()
-			.min(1, { error: 'Name the set, such as "PL-01 process piping".' })
-			.max(120, { error: 'A name has at most 120 characters.' }),
+		name: text('A name', 120, {
+			min: 1,
+			minError: 'Name the set, such as "PL-01 process piping".'
+		}),
 		base: z.string().trim().min(1).max(80).optional(),
 		revises: z.number().int().min(1).optional(),
 		overrides: overridesSchema.default({})

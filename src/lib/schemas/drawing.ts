@@ -1,9 +1,10 @@
 /** Inputs about drawings and revisions, shared by the upload form, the API and the tests. */
 import { z } from 'zod';
+import { note, text } from './text';
 
 export const DRAWING_KINDS = ['isometric', 'shop', 'structural'] as const;
 
-const text = (max: number) => z.string().trim().max(max).default('');
+const field = (what: string, max: number) => text(what, max).default('');
 
 export const revisionLabel = z
 	.string()
@@ -14,30 +15,26 @@ export const revisionLabel = z
 	});
 
 export const newDrawingSchema = z.object({
-	number: z
-		.string()
-		.trim()
-		.min(1, { error: 'Enter the drawing number.' })
-		.max(80, { error: 'A drawing number has at most 80 characters.' }),
-	title: text(200),
+	number: text('A drawing number', 80, { min: 1, minError: 'Enter the drawing number.' }),
+	title: field('The title', 200),
 	kind: z.enum(DRAWING_KINDS, { error: 'Choose isometric, shop or structural.' }),
 	revision: revisionLabel.default('0'),
-	note: text(500),
-	line: text(120),
-	area: text(80),
-	system: text(80)
+	note: note('The note', 500).default(''),
+	line: field('The line', 120),
+	area: field('The area', 80),
+	system: field('The system', 80)
 });
 
 export const newRevisionSchema = z.object({
 	label: revisionLabel,
-	note: text(500)
+	note: note('The note', 500).default('')
 });
 
 export const DRAWING_STATUSES = ['open', 'complete', 'review', 'empty'] as const;
 export const DRAWING_SORTS = ['number', 'title', 'kind', 'area', 'revised'] as const;
 
 export const drawingListQuery = z.object({
-	q: z.string().trim().max(80).default(''),
+	q: z.string().trim().max(80, { error: 'Search for at most 80 characters.' }).default(''),
 	kind: z.enum(DRAWING_KINDS).optional().catch(undefined),
 	area: z.string().trim().max(80).optional().catch(undefined),
 	status: z.enum(DRAWING_STATUSES).optional().catch(undefined),

@@ -4,21 +4,13 @@
  * and the tests. The server judges the readings itself; nothing here carries a verdict.
  */
 import { z } from 'zod';
-import { NDE_METHODS } from '$lib/joint-state';
+import { DECISIONS, INSPECTION_STAGES, NDE_METHODS, REASON_MIN_LENGTH } from '$lib/domain';
 import { readingsSchema } from './acceptance';
 import { ndeResultExtras } from './nde';
+import { jointVersion } from './joint';
+import { calendarDate, note, text } from './text';
 
-export const INSPECTION_STAGES = ['fitup', 'visual', 'nde'] as const;
-export const DECISIONS = ['accept', 'reject'] as const;
-
-const text = (max: number, what: string) =>
-	z
-		.string({ error: `${what} must be text.` })
-		.trim()
-		.max(max, { error: `${what} has at most ${max} characters.` });
-
-/** The joint's version as the client last saw it; optional, and checked when sent. */
-const version = z.number().int().min(1).optional();
+const version = jointVersion;
 
 export const recordInspectionSchema = z
 	.object({
@@ -27,10 +19,10 @@ export const recordInspectionSchema = z
 		readings: readingsSchema.default({}),
 		decision: z.enum(DECISIONS, { error: 'The decision must be accept or reject.' }),
 		/** Required when the decision goes against the verdict; kept with the record. */
-		reason: text(1000, 'The reason').optional(),
-		reportNo: text(60, 'The report number').optional(),
+		reason: note('The reason', 1000).optional(),
+		reportNo: text('The report number', 60).optional(),
 		/** The NDE technician and level, as the report names them. */
-		technician: text(120, 'The technician').optional(),
+		technician: text('The technician', 120).optional(),
 		/** A correction names the record it replaces; the old one stays in the history. */
 		supersedes: z
 			.number({ error: 'supersedes is the id of the inspection being corrected.' })
@@ -83,25 +75,10 @@ export const recordInspectionSchema = z
 export type RecordInspection = z.infer<typeof recordInspectionSchema>;
 
 /** A welder stamp as it is marked beside the weld, e.g. `B14`. */
-const stamp = z
-	.string({ error: 'A welder stamp is text, such as "B14".' })
-	.trim()
-	.min(1, { error: 'Enter the welder stamp.' })
-	.max(24, { error: 'A welder stamp has at most 24 characters.' });
-
-function isCalendarDate(value: string): boolean {
-	const date = new Date(`${value}T00:00:00Z`);
-	return !Number.isNaN(date.getTime()) && date.toISOString().slice(0, 10) === value;
-}
-
-export const isoDate = z
-	.string({ error: 'Give the date as YYYY-MM-DD.' })
-	.trim()
-	.regex(/^\d{4}-\d{2}-\d{2}$/, { error: 'Give the date as YYYY-MM-DD.' })
-	.refine(isCalendarDate, { error: 'That date is not on the calendar.' });
+const stamp = text('A welder stamp', 24, { min: 1, minError: 'Enter the welder stamp.' });
 
 export const recordWeldSchema = z.object({
-	weldedOn: isoDate,
+	weldedOn: calendarDate('The weld date'),
 	welders: z.object(
 		{
 			root: stamp,
@@ -111,17 +88,16 @@ export const recordWeldSchema = z.object({
 		{ error: 'Give the welder stamps by pass: { "root": "B14", "fill": "B22", "cap": "B22" }.' }
 	),
 	/** The WPS used; the joint's WPS when left out. */
-	wps: text(60, 'The WPS').optional(),
+	wps: text('The WPS', 60).optional(),
 	/** One process for every pass (`GTAW`), or by pass (`GTAW/SMAW`: root, then fill and cap). */
-	process: text(40, 'The process').optional(),
+	process: text('The process', 40).optional(),
 	/** An administrator letting a lapsed or expired qualification through, with the reason. */
 	override: z
 		.object({
-			reason: z
-				.string()
-				.trim()
-				.min(3, { error: 'Say why the qualification check is overridden.' })
-				.max(500)
+			reason: note('The override reason', 500, {
+				min: REASON_MIN_LENGTH,
+				minError: 'Say why the qualification check is overridden.'
+			})
 		})
 		.optional(),
 	version

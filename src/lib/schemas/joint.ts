@@ -3,13 +3,11 @@
  * the tests. Lengths arrive as typed (`3/8`, `9.5 mm`) and are read by the units module.
  */
 import { z } from 'zod';
+import { JOINT_KINDS, JOINT_LOCATIONS, REASON_MIN_LENGTH } from '$lib/domain';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
+import { note, text } from './text';
 import { parseLength, type UnitSystem } from '$lib/units';
-
-export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
-export const JOINT_LOCATIONS = ['shop', 'field'] as const;
-
-const text = (max: number) => z.string().trim().max(max);
+import { quantitySpec } from '$lib/acceptance/readings';
 
 export const weldNumber = z
 	.string()
@@ -20,24 +18,33 @@ export const weldNumber = z
 		error: 'Use letters, digits, "-", "/" or "." in a weld number.'
 	});
 
+/**
+ * The joint's version as the client last read it. Every write that changes a joint sends it;
+ * a joint changed since answers 409, so nobody overwrites a record they have not seen.
+ */
+export const jointVersion = z
+	.number({ error: 'Send the joint version you last saw.' })
+	.int({ error: 'The joint version is a whole number.' })
+	.min(1, { error: 'The joint version is a whole number from 1.' });
+
 export const jointFields = z.object({
 	kind: z.enum(JOINT_KINDS, { error: 'Choose butt, fillet, socket or branch.' }),
 	location: z.enum(JOINT_LOCATIONS, { error: 'Choose shop or field.' }),
-	line: text(120),
-	spool: text(60),
+	line: text('The line', 120),
+	spool: text('The spool', 60),
 	/** Nominal size (`6`, `NPS 6`, `DN150`) or an outside diameter with its unit. */
-	size: text(40),
-	thickness: text(40),
-	requiredSize: text(40),
-	material: text(120),
-	wps: text(60),
+	size: text('The size', 40),
+	thickness: text('The thickness', 40),
+	requiredSize: text('The required size', 40),
+	material: text('The material', 120),
+	wps: text('The WPS', 60),
 	/** A built-in set or one of the project's own; the server checks it belongs to the project. */
 	criteriaSetId: z
 		.string({ error: 'Choose one of the criteria sets.' })
 		.trim()
 		.min(1, { error: 'Choose one of the criteria sets.' })
 		.max(80),
-	ndeRequired: text(40)
+	ndeRequired: text('The NDE requirement', 40)
 });
 export type JointFields = z.infer<typeof jointFields>;
 
@@ -56,39 +63,34 @@ export const movePinSchema = z.object({
 	x: z.number().finite(),
 	y: z.number().finite(),
 	pageIndex: z.number().int().min(0).optional(),
-	/** The joint's version as the client last saw it. */
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export const updateJointSchema = jointFields.partial().extend({
 	number: weldNumber.optional(),
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export const voidJointSchema = z.object({
-	reason: z
-		.string()
-		.trim()
-		.min(3, { error: 'Say why the joint is voided (at least a few words).' })
-		.max(300),
-	version: z.number().int().min(1)
+	reason: note('The reason', 300, {
+		min: REASON_MIN_LENGTH,
+		minError: 'Say why the joint is voided (at least a few words).'
+	}),
+	version: jointVersion
 });
 
 /** A cut-out: the joint is voided with the reason and a joint with the N-suffixed number replaces it. */
 export const cutOutSchema = z.object({
-	reason: z
-		.string({ error: 'Say why the joint is cut out.' })
-		.trim()
-		.min(3, {
-			error: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").'
-		})
-		.max(300, { error: 'Keep the reason under 300 characters.' }),
-	version: z.number({ error: 'Send the joint version you last saw.' }).int().min(1)
+	reason: note('The reason', 300, {
+		min: REASON_MIN_LENGTH,
+		minError: 'Say why the joint is cut out (e.g. "RT reject after R2", "client request").'
+	}),
+	version: jointVersion
 });
 export type CutOut = z.infer<typeof cutOutSchema>;
 
 export const reviewPinSchema = z.object({
-	version: z.number().int().min(1)
+	version: jointVersion
 });
 
 export interface LengthColumns {
@@ -146,7 +148,7 @@ export function jointLengths(
 			values[mmKey] = null;
 			continue;
 		}
-		const parsed = parseLength(typed, { units, reading: field });
+		const parsed = parseLength(typed, { units, reading: quantitySpec(field) });
 		if (!parsed.ok) return { ok: false, field: `joint.${field}`, message: parsed.message };
 		values[mmKey] = parsed.value;
 	}

@@ -5,13 +5,8 @@
 import { z } from 'zod';
 import { MAX_SEED } from '$lib/random';
 import { LOT_GROUPINGS, WELD_KINDS } from '$lib/nde/extent';
-import { NDE_METHODS } from '$lib/joint-state';
-
-const text = (max: number, what: string) =>
-	z
-		.string({ error: `${what} must be text.` })
-		.trim()
-		.max(max, { error: `${what} has at most ${max} characters.` });
+import { NDE_METHODS, REASON_MIN_LENGTH } from '$lib/domain';
+import { note, text } from './text';
 
 export const seedSchema = z
 	.number({ error: 'A seed is a whole number from 0 to 4294967295.' })
@@ -24,11 +19,10 @@ const jointId = z
 	.int({ error: 'A joint is given by its id.' })
 	.positive({ error: 'A joint is given by its id.' });
 
-const reason = z
-	.string({ error: 'Give the reason as text.' })
-	.trim()
-	.min(3, { error: 'Say why (at least 3 characters); the reason stays in the record.' })
-	.max(500, { error: 'The reason has at most 500 characters.' });
+const reason = note('The reason', 500, {
+	min: REASON_MIN_LENGTH,
+	minError: 'Say why (at least 3 characters); the reason stays in the record.'
+});
 
 export const swapSchema = z.object({ out: jointId, in: jointId, reason });
 export type SwapInput = z.infer<typeof swapSchema>;
@@ -40,7 +34,7 @@ export const commitSelectionSchema = z.object({
 });
 
 export const closeLotSchema = z.object({
-	note: text(500, 'The note').default('')
+	note: note('The note', 500).default('')
 });
 
 export const sendRequestSchema = z.object({
@@ -49,7 +43,7 @@ export const sendRequestSchema = z.object({
 		.array(z.number().int().positive(), { error: 'lotIds is a list of lot ids.' })
 		.max(1000)
 		.optional(),
-	note: text(1000, 'The note').default('')
+	note: note('The note', 1000).default('')
 });
 
 export const LOT_STAGES = ['open', 'sampled', 'progressive', 'full', 'closed'] as const;
@@ -57,7 +51,7 @@ export const LOT_STAGES = ['open', 'sampled', 'progressive', 'full', 'closed'] a
 export const lotsQuerySchema = z.object({
 	status: z.enum(['open', 'closed'], { error: 'status is open or closed.' }).optional(),
 	stage: z.enum(LOT_STAGES, { error: `stage is one of: ${LOT_STAGES.join(', ')}.` }).optional(),
-	q: z.string().trim().max(80, { error: 'Search for at most 80 characters.' }).default(''),
+	q: text('The search', 80).default(''),
 	page: z.coerce
 		.number({ error: 'The page is a whole number from 1.' })
 		.int({ error: 'The page is a whole number from 1.' })
@@ -91,9 +85,9 @@ export const indicationSchema = z.object({
 		error: `The indication type is one of: ${INDICATION_TYPES.join(', ')}.`
 	}),
 	/** As typed, e.g. `3/8`, `10 mm`; read in the project's units. */
-	length: text(30, 'The length').default(''),
-	depth: text(30, 'The depth').default(''),
-	location: text(60, 'The location').default(''),
+	length: text('The length', 30).default(''),
+	depth: text('The depth', 30).default(''),
+	location: text('The location', 60).default(''),
 	/** This indication is a reason for the reject. */
 	rejected: z.boolean().default(false)
 });
@@ -105,7 +99,7 @@ export const ndeResultExtras = {
 	indications: z.array(indicationSchema).max(50, { error: 'At most 50 indications.' }).optional(),
 	/** On a reject: whose work the defect is in, by stamp; every welder of the weld when left out. */
 	welders: z
-		.array(text(24, 'A welder stamp').min(1, { error: 'Give each welder stamp.' }))
+		.array(text('A welder stamp', 24, { min: 1, minError: 'Give each welder stamp.' }))
 		.max(6)
 		.optional()
 };

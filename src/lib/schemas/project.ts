@@ -1,11 +1,12 @@
 /** A project's settings, as the administrator edits them. */
 import { z } from 'zod';
+import { text } from './text';
 
 export const projectSettingsSchema = z.object({
-	name: z.string().trim().min(1, { error: 'Name the project.' }).max(160),
-	client: z.string().trim().max(160).default(''),
-	contractor: z.string().trim().max(160).default(''),
-	site: z.string().trim().max(160).default(''),
+	name: text('The name', 160, { min: 1, minError: 'Name the project.' }),
+	client: text('The client', 160).default(''),
+	contractor: text('The contractor', 160).default(''),
+	site: text('The site', 160).default(''),
 	/** A built-in set or one of the project's own; the action checks it belongs to the project. */
 	defaultCriteriaSet: z
 		.string({ error: 'Choose a criteria set.' })

@@ -9,9 +9,11 @@
  * `{setId}@{version}` of the project set it was derived from. Each row holds every limit that
  * version changes from its base, so a version is its base plus its own row, nothing else.
  */
+import { DomainError } from './errors';
 import { and, asc, eq, like } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
+import * as projects from './projects';
 import {
 	builtInCriteriaSetIds,
 	checkIds,
@@ -30,24 +32,12 @@ import {
 	type CriteriaChoice,
 	type CriteriaSetInput
 } from '$lib/schemas/criteria-set';
-import type { CriteriaSetRow, UnitSystem } from './db/schema';
+import type { CriteriaSetRow } from './db/schema';
 
 type Reader = Pick<Db, 'select'>;
 type Overrides = Partial<Record<CheckId, LimitOverride>>;
 
 const t = schema.criteriaSets;
-
-/** An expected refusal, with the status and the field an API answer names. */
-export class CriteriaSetProblem extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409,
-		readonly field?: string
-	) {
-		super(message);
-		this.name = 'CriteriaSetProblem';
-	}
-}
 
 export function isBuiltIn(id: string): boolean {
 	return builtInCriteriaSetIds.includes(id);
@@ -203,7 +193,7 @@ export function choices(projectId: number, reader: Reader = db): CriteriaChoice[
 /** A refusal naming the sets a project can use, for an id it does not know. */
 export function unknownSet(projectId: number, id: string, field: string, reader: Reader = db) {
 	const known = choices(projectId, reader).map((choice) => choice.id);
-	return new CriteriaSetProblem(
+	return new DomainError(
 		`"${id}" is not a criteria set of this project; use one of: ${known.join(', ')}.`,
 		400,
 		field
@@ -238,19 +228,9 @@ export function projectSetJson({ set, baseId, versions }: ProjectSet) {
 
 // Writing -----------------------------------------------------------------------------------
 
-function projectUnits(projectId: number, reader: Reader): UnitSystem {
-	return (
-		reader
-			.select({ units: schema.projects.units })
-			.from(schema.projects)
-			.where(eq(schema.projects.id, projectId))
-			.get()?.units ?? 'imperial'
-	);
-}
-
 function readOrThrow(input: CriteriaSetInput, projectId: number, reader: Reader): Overrides {
-	const read = readOverrides(input.overrides, projectUnits(projectId, reader));
-	if (!read.ok) throw new CriteriaSetProblem(read.message, 400, read.field);
+	const read = readOverrides(input.overrides, projects.unitsOf(projectId, reader));
+	if (!read.ok) throw new DomainError(read.message, 400, read.field);
 	return read.overrides;
 }
 
@@ -259,7 +239,7 @@ function deriveOrThrow(base: CriteriaSet, changes: Parameters<typeof deriveCrite
 		return deriveCriteriaSet(base, changes);
 	} catch (error) {
 		if (error instanceof CriteriaSetError) {
-			throw new CriteriaSetProblem(error.message, 400, error.field);
+			throw new DomainError(error.message, 400, error.field);
 		}
 		throw error;
 	}
@@ -281,7 +261,7 @@ function canonical(value: unknown): string {
 export function create(projectId: number, input: CriteriaSetInput, userId: string): CriteriaSet {
 	return db.transaction((tx) => {
 		if (isBuiltIn(input.id)) {
-			throw new CriteriaSetProblem(
+			throw new DomainError(
 				`"${input.id}" is a built-in criteria set; choose another id.`,
 				400,
 				'id'
@@ -289,7 +269,7 @@ export function create(projectId: number, input: CriteriaSetInput, userId: strin
 		}
 		const taken = latestRow(projectId, input.id, tx);
 		if (taken) {
-			throw new CriteriaSetProblem(
+			throw new DomainError(
 				`This project already has a criteria set "${input.id}" (version ${taken.version}); revise it, or choose another id.`,
 				409,
 				'id'
@@ -340,20 +320,16 @@ export function revise(projectId: number, input: CriteriaSetInput, userId: strin
 		const latest = latestRow(projectId, input.id, tx);
 		if (!latest) {
 			if (isBuiltIn(input.id)) {
-				throw new CriteriaSetProblem(
+				throw new DomainError(
 					`"${input.id}" is a built-in criteria set and is not changed; derive a set of the project from it instead.`,
 					400,
 					'id'
 				);
 			}
-			throw new CriteriaSetProblem(
-				`This project has no criteria set "${input.id}" to revise.`,
-				404,
-				'id'
-			);
+			throw new DomainError(`This project has no criteria set "${input.id}" to revise.`, 404, 'id');
 		}
 		if (input.revises !== latest.version) {
-			throw new CriteriaSetProblem(
+			throw new DomainError(
 				`Criteria set "${input.id}" is at version ${latest.version} now, not ${input.revises}: someone revised it meanwhile. Reload it and make the change again.`,
 				409,
 				'revises'
@@ -361,7 +337,7 @@ export function revise(projectId: number, input: CriteriaSetInput, userId: strin
 		}
 		const overrides = readOrThrow(input, projectId, tx);
 		if (latest.name === input.name && canonical(latest.overrides) === canonical(overrides)) {
-			throw new CriteriaSetProblem(
+			throw new DomainError(
 				`The revision changes nothing in "${input.id}" version ${latest.version}.`,
 				400,
 				'overrides'

@@ -1,4 +1,5 @@
 /** The drawing register: drawings, their revisions and sheets, uploads and supersede. */
+import { DomainError } from './errors';
 import {
 	and,
 	asc,
@@ -24,20 +25,14 @@ import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import type { z } from 'zod';
 import type { DrawingListQuery, newDrawingSchema, newRevisionSchema } from '$lib/schemas/drawing';
 
-export class DrawingError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409 | 413 | 415 | 422
-	) {
-		super(message);
-	}
-}
-
 const d = schema.drawings;
 const r = schema.revisions;
 const j = schema.joints;
 
 const current = and(eq(r.drawingId, d.id), eq(r.status, 'current'));
+
+/** Upload writes take the write lock at BEGIN, so their duplicate checks hold across processes. */
+const IMMEDIATE = { behavior: 'immediate' } as const;
 
 function liveJointsWhere(extra?: SQL) {
 	return db
@@ -297,10 +292,24 @@ export function revisionJson(rev: NonNullable<ReturnType<typeof revision>>) {
 type NewDrawing = z.infer<typeof newDrawingSchema>;
 type NewRevision = z.infer<typeof newRevisionSchema>;
 
+/**
+ * A unique index that refused a row another upload wrote first (a second server process):
+ * the same 409 the checks give, never a 500.
+ */
+function asConflict(error: unknown): unknown {
+	const code = (error as { code?: unknown } | null)?.code;
+	if (typeof code === 'string' && code.startsWith('SQLITE_CONSTRAINT_UNIQUE'))
+		return new DomainError(
+			'Another upload registered the same drawing number or revision label first. Reload the register and check.',
+			409
+		);
+	return error;
+}
+
 /** Refused uploads leave nothing behind: the staged file is removed on every failure path. */
 async function checkedPdf(staged: StagedUpload) {
 	const inspected = await inspectPdf(staged.tempPath);
-	if (!inspected.ok) throw new DrawingError(inspected.message, 422);
+	if (!inspected.ok) throw new DomainError(inspected.message, 422);
 	return inspected;
 }
 
@@ -370,7 +379,7 @@ export async function create(
 				.where(and(eq(d.projectId, projectId), eq(d.number, input.number)))
 				.get()
 		) {
-			throw new DrawingError(
+			throw new DomainError(
 				`Drawing ${input.number} is already registered. Upload the file as a new revision of it instead.`,
 				409
 			);
@@ -378,6 +387,19 @@ export async function create(
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
 		return db.transaction((tx) => {
+			// Checked again here: another upload of the same number may have landed while this
+			// file was being read, and nothing else can run between this check and the insert.
+			if (
+				tx
+					.select({ id: d.id })
+					.from(d)
+					.where(and(eq(d.projectId, projectId), eq(d.number, input.number)))
+					.get()
+			)
+				throw new DomainError(
+					`Drawing ${input.number} was registered meanwhile. Upload the file as a new revision of it instead.`,
+					409
+				);
 			const drawing = tx
 				.insert(d)
 				.values({
@@ -410,10 +432,10 @@ export async function create(
 				tx
 			);
 			return { drawing, revisionId: created.id };
-		});
+		}, IMMEDIATE);
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
-		throw error;
+		throw asConflict(error);
 	} finally {
 		await storage.removePath(staged.tempPath);
 	}
@@ -434,17 +456,17 @@ export async function addRevision(
 	const key = storage.newKey('revisions', '.pdf');
 	try {
 		const drawing = get(projectId, drawingId);
-		if (!drawing) throw new DrawingError('There is no such drawing in this project.', 404);
+		if (!drawing) throw new DomainError('There is no such drawing in this project.', 404);
 		const existing = history(drawingId);
 		if (existing.some((rev) => rev.label === input.label)) {
-			throw new DrawingError(
+			throw new DomainError(
 				`Drawing ${drawing.number} already has a revision ${input.label}. Use the next label.`,
 				409
 			);
 		}
 		const same = existing.find((rev) => rev.sha256 === staged.sha256);
 		if (same) {
-			throw new DrawingError(
+			throw new DomainError(
 				`This very file is already stored as revision ${same.label} of ${drawing.number}.`,
 				409
 			);
@@ -452,6 +474,22 @@ export async function addRevision(
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
 		const result = db.transaction((tx) => {
+			// Checked again here, where nothing else can run before the insert: another upload
+			// of the same label or the same file may have landed while this one was being read.
+			const clash = tx
+				.select({ label: r.label, sha256: r.sha256 })
+				.from(r)
+				.where(
+					and(eq(r.drawingId, drawingId), or(eq(r.label, input.label), eq(r.sha256, staged.sha256)))
+				)
+				.get();
+			if (clash)
+				throw new DomainError(
+					clash.label === input.label
+						? `Drawing ${drawing.number} already has a revision ${input.label}. Use the next label.`
+						: `This very file is already stored as revision ${clash.label} of ${drawing.number}.`,
+					409
+				);
 			const previous = tx
 				.select()
 				.from(r)
@@ -511,7 +549,7 @@ export async function addRevision(
 				tx
 			);
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
-		});
+		}, IMMEDIATE);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',
@@ -522,7 +560,7 @@ export async function addRevision(
 		return result;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
-		throw error;
+		throw asConflict(error);
 	} finally {
 		await storage.removePath(staged.tempPath);
 	}

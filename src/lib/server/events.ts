@@ -3,6 +3,7 @@
  * refresh when someone else records a result or moves a pin. In-process (one server).
  */
 import { EventEmitter } from 'node:events';
+import { db } from './db';
 
 export type ProjectEvent =
 	| {
@@ -35,4 +36,18 @@ export function subscribe(
 	const name = `project:${projectId}`;
 	bus.emitter.on(name, listener);
 	return () => bus.emitter.off(name, listener);
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+type Tell = (projectId: number, event: ProjectEvent & { by?: string }) => void;
+
+/**
+ * Run a write in one transaction and tell the project's viewers only once it is committed:
+ * a viewer that reloads on the news reads the change, and a write that fails tells nobody.
+ */
+export function afterCommit<T>(work: (tx: Tx, tell: Tell) => T): T {
+	const pending: Parameters<Tell>[] = [];
+	const result = db.transaction((tx) => work(tx, (...told) => void pending.push(told)));
+	for (const [projectId, event] of pending) publish(projectId, event);
+	return result;
 }

@@ -11,6 +11,7 @@
  * then keeps `status: 'done'` with no file, and the audit event of the removal says when and
  * by whom, which is what the history shows.
  */
+import { DomainError } from './errors';
 import fsp from 'node:fs/promises';
 import path from 'node:path';
 import { and, desc, eq, inArray, isNotNull, lt } from 'drizzle-orm';
@@ -25,16 +26,6 @@ import { preview, resolve, scopeKey } from './export/scope';
 import { describeScope, exportRequestToQuery, type ExportRequest } from '$lib/schemas/export';
 
 export { preview };
-
-export class ExportError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409 | 410,
-		readonly exportId?: number
-	) {
-		super(message);
-	}
-}
 
 const e = schema.exports;
 const ACTIVE = ['queued', 'running'] as const;
@@ -86,6 +77,18 @@ export function recoverInterrupted(): number {
 	return stale.length;
 }
 
+/**
+ * Zips a stopped server left half-written (`*.part`): nothing can finish them, and their
+ * export is marked failed by `recoverInterrupted`. Run at start, before any job of this process.
+ */
+export async function removeUnfinished(): Promise<number> {
+	const folder = path.dirname(storage.pathOf('exports/x'));
+	const names = await fsp.readdir(folder).catch(() => [] as string[]);
+	const partial = names.filter((name) => name.endsWith('.part'));
+	for (const name of partial) await storage.remove(`exports/${name}`);
+	return partial.length;
+}
+
 /** On first use, not at import: the production build imports this module without a database. */
 function recoverOnce() {
 	if (!runner.recovered) recoverInterrupted();
@@ -118,7 +121,7 @@ export function start(
 ): { id: number } {
 	recoverOnce();
 	if (resolve(projectId, request).length === 0)
-		throw new ExportError(
+		throw new DomainError(
 			'Nothing in this project matches the scope: choose other drawings, an area or a system.',
 			400
 		);
@@ -130,10 +133,11 @@ export function start(
 			.where(and(eq(e.scopeKey, key), inArray(e.status, [...ACTIVE])))
 			.get();
 		if (running)
-			throw new ExportError(
+			throw new DomainError(
 				'The same turnover set is already being exported. Wait for it or cancel it first.',
 				409,
-				running.id
+				undefined,
+				{ exportId: running.id }
 			);
 		const row = tx
 			.insert(e)
@@ -287,9 +291,9 @@ async function notify(
 /** Cancel a queued or running job; its partial file is never kept. */
 export function cancel(exportId: number, userId: string) {
 	const row = db.select().from(e).where(eq(e.id, exportId)).get();
-	if (!row) throw new ExportError('There is no such export.', 404);
+	if (!row) throw new DomainError('There is no such export.', 404);
 	if (!(ACTIVE as readonly string[]).includes(row.status))
-		throw new ExportError(
+		throw new DomainError(
 			`This export has already ${row.status === 'done' ? 'finished' : row.status}.`,
 			409
 		);
@@ -387,16 +391,16 @@ export function fileOf(exportId: number) {
 		.innerJoin(schema.projects, eq(schema.projects.id, e.projectId))
 		.where(eq(e.id, exportId))
 		.get();
-	if (!row) throw new ExportError('There is no such export.', 404);
+	if (!row) throw new DomainError('There is no such export.', 404);
 	if (row.status === 'done' && !row.fileKey) {
 		const removed = removal(exportId);
-		throw new ExportError(
+		throw new DomainError(
 			`The file of this export was removed${removed ? ` on ${dayOf(removed.at)}` : ''}; export the set again.`,
 			410
 		);
 	}
 	if (row.status !== 'done' || !row.fileKey)
-		throw new ExportError('This export has no file: it is not finished, or it failed.', 409);
+		throw new DomainError('This export has no file: it is not finished, or it failed.', 409);
 	const code =
 		row.code.replace(/[^A-Za-z0-9._-]+/g, '-').replace(/^[-.]+|[-.]+$/g, '') || 'project';
 	const day = new Date(row.createdAt).toISOString().slice(0, 10);
@@ -453,20 +457,20 @@ function removal(exportId: number) {
 async function removeStored(exportId: number, userId: string | null, reason: string) {
 	const key = db.transaction((tx) => {
 		const row = tx.select().from(e).where(eq(e.id, exportId)).get();
-		if (!row) throw new ExportError('There is no such export.', 404);
+		if (!row) throw new DomainError('There is no such export.', 404);
 		if ((ACTIVE as readonly string[]).includes(row.status))
-			throw new ExportError(
+			throw new DomainError(
 				'This export is still running: cancel it instead; its partial file is never kept.',
 				409
 			);
 		if (row.status !== 'done')
-			throw new ExportError(
+			throw new DomainError(
 				`This export ${row.status === 'failed' ? 'failed' : 'was cancelled'} and has no file.`,
 				409
 			);
 		if (!row.fileKey) {
 			const removed = removal(exportId);
-			throw new ExportError(
+			throw new DomainError(
 				`The file of this export was already removed${removed ? ` on ${dayOf(removed.at)}` : ''}.`,
 				409
 			);
@@ -518,7 +522,7 @@ export async function sweep(now = Date.now(), keepDays = config.exportKeepDays) 
 				expired++;
 			} catch (error) {
 				// Removed by a person meanwhile: nothing left to do.
-				if (!(error instanceof ExportError)) throw error;
+				if (!(error instanceof DomainError)) throw error;
 			}
 		}
 	}
@@ -564,6 +568,6 @@ export function startCleanup() {
 			})
 			.catch((error) => console.error('Turnover clean-up:', error));
 	void run();
-	runner.cleanup = setInterval(run, SWEEP_EVERY_MS);
+	runner.cleanup = setInterval(() => void run(), SWEEP_EVERY_MS);
 	runner.cleanup.unref();
 }

@@ -3,21 +3,20 @@
  * welding, final visual after). One row per joint, grouped by batch; the project's inspectors
  * get one e-mail per batch. A request closes itself when that inspection is recorded.
  */
+import { STAGE_LABELS } from '$lib/domain';
 import { and, asc, eq, inArray, isNull } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
 import * as events from './events';
 import * as mail from './mail';
 import * as mailTemplates from './mail-templates';
-import { JointError } from './joints';
+import { DomainError } from './errors';
 import { displayWeldNumber, STATE_LOOKS, type InspectionStage } from '$lib/joint-state';
 import { REQUESTABLE_STATES, type RequestStage } from '$lib/outstanding';
 import type { InspectionRequestInput } from '$lib/schemas/outstanding';
 
 const r = schema.inspectionRequests;
 const j = schema.joints;
-
-const STAGE_WORDS: Record<RequestStage, string> = { fitup: 'fit-up', visual: 'visual' };
 
 function projectInspectors(projectId: number) {
 	return db
@@ -37,7 +36,7 @@ function projectInspectors(projectId: number) {
 
 /**
  * Request an inspection of the given joints. Every joint must be on the project, in a state
- * that stage inspects, and without an open request: else a JointError (404, 409) naming it.
+ * that stage inspects, and without an open request: else a DomainError (404, 409) naming it.
  */
 export function create(projectId: number, input: InspectionRequestInput, userId: string) {
 	const ids = [...new Set(input.jointIds)];
@@ -57,14 +56,14 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 			.all();
 		const missing = ids.filter((id) => !rows.some((row) => row.id === id));
 		if (missing.length > 0) {
-			throw new JointError(`Joint ${missing.join(', ')} is not on this project.`, 404, 'jointIds');
+			throw new DomainError(`Joint ${missing.join(', ')} is not on this project.`, 404, 'jointIds');
 		}
 		const name = (row: (typeof rows)[number]) =>
 			`weld ${displayWeldNumber(row.number, row.repairCycle)} on ${row.drawingNumber}`;
 		for (const row of rows) {
 			if (!REQUESTABLE_STATES[input.stage].includes(row.state)) {
-				throw new JointError(
-					`Cannot request a ${STAGE_WORDS[input.stage]} inspection of ${name(row)}: it is ${STATE_LOOKS[row.state].label.toLowerCase()} (next: ${STATE_LOOKS[row.state].next.toLowerCase()}).`,
+				throw new DomainError(
+					`Cannot request a ${STAGE_LABELS[input.stage].word} inspection of ${name(row)}: it is ${STATE_LOOKS[row.state].label.toLowerCase()} (next: ${STATE_LOOKS[row.state].next.toLowerCase()}).`,
 					409,
 					'jointIds'
 				);
@@ -77,8 +76,8 @@ export function create(projectId: number, input: InspectionRequestInput, userId:
 			.all();
 		if (open.length > 0) {
 			const row = rows.find((x) => x.id === open[0].jointId)!;
-			throw new JointError(
-				`A ${STAGE_WORDS[input.stage]} inspection of ${name(row)} is already requested (since ${new Date(open[0].requestedAt).toISOString().slice(0, 16).replace('T', ' ')} UTC).`,
+			throw new DomainError(
+				`A ${STAGE_LABELS[input.stage].word} inspection of ${name(row)} is already requested (since ${new Date(open[0].requestedAt).toISOString().slice(0, 16).replace('T', ' ')} UTC).`,
 				409,
 				'jointIds'
 			);
@@ -184,7 +183,7 @@ export async function notify(
 		await mail.send(
 			mailTemplates.inspectionRequest(inspector.email, {
 				project: `${project.code} ${project.name}`,
-				stage: STAGE_WORDS[stage],
+				stage: STAGE_LABELS[stage].word,
 				requestedBy: who?.name ?? who?.email ?? 'The foreman',
 				note: created.requests[0]?.note ?? '',
 				welds,

@@ -4,84 +4,38 @@
  * verdict is the server's, never the client's. Append-only: a correction is a new row that
  * names the row it supersedes, and both stay in the history.
  */
-import { and, desc, eq } from 'drizzle-orm';
+import { asc, desc, eq, sql, type SQL } from 'drizzle-orm';
+import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
 import * as audit from './audit';
+import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
 import * as ndeLots from './nde';
-import { JointError, refreshState, row, stateInput } from './joints';
+import { DomainError, refuse } from './errors';
+import { lockedJoint, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
 	getCriteriaSet,
-	isReadingId,
-	readingDefinitions,
 	type CriteriaSet,
 	type JointInput,
 	type ReadingsInput,
 	type Stage
 } from '$lib/acceptance';
-import {
-	deriveJointState,
-	displayWeldNumber,
-	effectiveInspections,
-	STATE_LOOKS,
-	type DerivedState,
-	type StateInput
-} from '$lib/joint-state';
-import { parseAngle, parseLength, type UnitSystem } from '$lib/units';
+import { correctionRequestRefusal } from '$lib/corrections';
+import { isAgainstVerdict, isReasonGiven } from '$lib/domain';
+import { correctionsOf, deriveJointState, displayWeldNumber, STATE_LOOKS } from '$lib/joint-state';
+import { stageOrderRefusal } from '$lib/stage-order';
+import type { UnitSystem } from '$lib/units';
 import type { RecordInspection } from '$lib/schemas/inspection';
-import type { Inspection, Joint, StoredReading } from './db/schema';
+import type { Joint } from './db/schema';
 
 /** Readings by id: as typed, a number in mm or degrees, or yes/no; blank means not given. */
 export type ReadingTexts = ReadingsInput;
 
-const YES = ['yes', 'y', 'true'];
-const NO = ['no', 'n', 'false'];
-
-const isBlank = (value: unknown): value is null | undefined | '' =>
-	value == null || (typeof value === 'string' && value.trim() === '');
-
-/** Each reading with the text as typed and its value, as an inspection row keeps it. */
-export function storedReadings(texts: ReadingTexts, units: UnitSystem): StoredReading[] {
-	const stored: StoredReading[] = [];
-	for (const [id, raw] of Object.entries(texts)) {
-		if (!isReadingId(id) || isBlank(raw)) continue;
-		const definition = readingDefinitions[id];
-		if (definition.kind === 'boolean') {
-			const answer = typeof raw === 'string' ? raw.trim().toLowerCase() : raw;
-			const flag = YES.includes(String(answer)) ? true : NO.includes(String(answer)) ? false : null;
-			stored.push({
-				id,
-				text: typeof raw === 'boolean' ? (raw ? 'yes' : 'no') : String(raw),
-				value: flag,
-				unit: flag === null ? null : 'bool'
-			});
-			continue;
-		}
-		if (typeof raw === 'boolean') {
-			stored.push({ id, text: raw ? 'yes' : 'no', value: null, unit: null });
-			continue;
-		}
-		const angle = definition.kind === 'angle';
-		const parsed = angle
-			? parseAngle(raw, { reading: definition.id })
-			: parseLength(raw, { units, reading: definition.id });
-		// A JSON number is already mm or degrees; the unit goes into the text so that it reads
-		// the same in an inch project, where a bare "1.6" would mean inches.
-		const text = typeof raw === 'number' ? `${raw}${angle ? '°' : ' mm'}` : raw;
-		stored.push(
-			parsed.ok
-				? { id, text, value: parsed.value, unit: angle ? 'deg' : 'mm' }
-				: { id, text, value: null, unit: null }
-		);
-	}
-	return stored;
-}
-
-function unknownCriteriaSet(criteriaSetId: string): JointError {
-	return new JointError(
+function unknownCriteriaSet(criteriaSetId: string): DomainError {
+	return new DomainError(
 		`The joint's criteria set "${criteriaSetId}" is neither a built-in set nor one of the project's own; choose a criteria set on the joint card first.`,
 		409,
 		'criteriaSetId'
@@ -96,7 +50,7 @@ function criteriaWords(set: CriteriaSet): string {
 
 /**
  * The engine's verdict on a set of readings, in the shape an inspection row stores: by a set,
- * or a built-in set named by its id. An unreadable reading is a JointError 400 naming the
+ * or a built-in set named by its id. An unreadable reading is a DomainError 400 naming the
  * field (`readings.undercutDepth`).
  */
 export function judgeReadings(
@@ -111,10 +65,10 @@ export function judgeReadings(
 	const result = evaluate(set, joint, stage, texts, { units });
 	if (!result.ok) {
 		const [first] = result.errors;
-		throw new JointError(first.message, 400, first.field);
+		throw new DomainError(first.message, 400, first.field);
 	}
 	return {
-		readings: storedReadings(texts, units),
+		readings: result.readings,
 		verdict: result.verdict,
 		findings: result.findings,
 		version: result.criteria.version
@@ -124,6 +78,16 @@ export function judgeReadings(
 // Reading -------------------------------------------------------------------------------
 
 const i = schema.inspections;
+
+/**
+ * In SQL, the records that stand: those no later record corrects. The same set as
+ * `effectiveInspections` of $lib/joint-state keeps (which also puts each correction in the
+ * place of the row it corrects); a filter that only asks "does a standing record say …"
+ * reads it here, and anything that needs the order reads the rule itself.
+ */
+export function standingSql(id: SQL | AnySQLiteColumn = i.id): SQL {
+	return sql`not exists (select 1 from ${i} as later where later.supersedes_id = ${id})`;
+}
 
 /** The joint's inspections, newest first, with the inspector's name and any later correction. */
 export function list(jointId: number) {
@@ -138,174 +102,37 @@ export function list(jointId: number) {
 		.where(eq(i.jointId, jointId))
 		.orderBy(desc(i.inspectedAt), desc(i.id))
 		.all();
-	const correctedBy = new Map<number, number>();
-	for (const { inspection } of rows) {
-		if (inspection.supersedesId != null) correctedBy.set(inspection.supersedesId, inspection.id);
-	}
+	const correctedBy = correctionsOf(rows.map(({ inspection }) => inspection));
 	return rows.map(({ inspection, inspector, inspectorEmail }) => ({
 		...inspection,
 		inspector: inspector ?? inspectorEmail,
-		supersededById: correctedBy.get(inspection.id) ?? null
+		supersededById: correctedBy.get(inspection.id)?.id ?? null
 	}));
 }
 
 // Writing -------------------------------------------------------------------------------
 
 type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
-type Row = StateInput['inspections'][number];
 
-const STAGE_NAMES = { fitup: 'fit-up', visual: 'visual', nde: 'NDE' } as const;
-
-function stageName(stage: Row['stage'], method?: string | null): string {
-	return stage === 'nde' && method ? method : STAGE_NAMES[stage];
-}
-
-function dateOf(ms: number): string {
-	return new Date(ms).toISOString().slice(0, 10);
-}
-
-/**
- * Fit-up before welding, visual once welded, NDE after an accepted visual, all of the current
- * repair cycle; one result per stage (per method for NDE) and cycle unless it is a correction.
- */
-function checkStageOrder(
-	tx: Tx,
-	joint: Joint,
-	input: RecordInspection,
-	state: StateInput,
-	derived: DerivedState,
-	correcting: Inspection | undefined
-) {
-	const label = displayWeldNumber(joint.number, derived.repairCycle);
-	const welded = state.welds.length > 0;
-	const cycle = derived.repairCycle;
-	if (input.stage === 'fitup') {
-		if (welded) {
-			throw new JointError(
-				correcting
-					? `Joint ${label} has been welded since that fit-up record; it stands as it was, and the weld's own inspections follow.`
-					: `Joint ${label} is already welded (${STATE_LOOKS[derived.state].label.toLowerCase()}); fit-up is inspected before welding. Record a visual inspection of the weld instead.`,
-				409,
-				'stage'
-			);
-		}
-		return;
-	}
-	if (!welded) {
-		const next =
-			derived.state === 'ready_to_weld'
-				? 'the foreman records the weld with the welder stamps first'
-				: 'its fit-up must be accepted and the weld recorded first';
-		throw new JointError(
-			`Joint ${label} has not been welded yet: ${next}, then the ${stageName(input.stage, input.method)} result can be recorded.`,
-			409,
-			'stage'
-		);
-	}
-	const rows = effectiveInspections(state.inspections).filter(
-		(r) => r.repairCycle === cycle && r.id !== correcting?.id
-	);
-	const previous = (match: (r: Row) => boolean) => rows.filter(match).at(-1);
-	const describe = (r: Row) => {
-		const record = tx
-			.select({ at: i.inspectedAt, by: schema.users.name })
-			.from(i)
-			.innerJoin(schema.users, eq(schema.users.id, i.inspectorId))
-			.where(eq(i.id, r.id))
-			.get();
-		return `#${r.id}, ${r.decision}${record ? `, ${record.by ?? 'inspector'} on ${dateOf(record.at)}` : ''}`;
-	};
-	const visual = previous((r) => r.stage === 'visual');
-	if (input.stage === 'visual') {
-		if (visual) {
-			const then =
-				visual.decision === 'reject'
-					? ` It was rejected: the repair weld (${displayWeldNumber(joint.number, cycle + 1)}) comes next, and its own visual after it.`
-					: '';
-			throw new JointError(
-				`Weld ${label} already has a visual result (${describe(visual)}).${then} To change that result, record a correction that supersedes it.`,
-				409,
-				'stage'
-			);
-		}
-		return;
-	}
-	if (!visual || visual.decision !== 'accept') {
-		throw new JointError(
-			visual
-				? `The visual inspection of weld ${label} was rejected (${describe(visual)}): the weld is repaired before any NDE.`
-				: `Weld ${label} has no accepted visual inspection yet: NDE comes after the visual is accepted.`,
-			409,
-			'stage'
-		);
-	}
-	const method = input.method!;
-	if (!state.ndeMethods.includes(method)) {
-		const asked = state.ndeMethods.length ? state.ndeMethods.join(', ') : 'none';
-		throw new JointError(
-			`${method} is not asked of joint ${label} (required or selected: ${asked}). Select the joint for ${method} first, so the result counts toward its state.`,
-			409,
-			'method'
-		);
-	}
-	const nde = previous((r) => r.stage === 'nde' && r.method === method);
-	if (nde) {
-		throw new JointError(
-			`Weld ${label} already has a ${method} result (${describe(nde)}). To change it, record a correction that supersedes it.`,
-			409,
-			'stage'
-		);
-	}
-}
-
-/** The row a correction replaces: same joint, same stage and method, not yet corrected. */
-function supersededRow(tx: Tx, joint: Joint, input: RecordInspection, derived: DerivedState) {
-	const id = input.supersedes!;
-	const old = tx.select().from(i).where(eq(i.id, id)).get();
-	if (!old || old.jointId !== joint.id) {
-		throw new JointError(
-			`Inspection #${id} is not a record of joint ${joint.number}.`,
-			400,
-			'supersedes'
-		);
-	}
-	if (old.stage !== input.stage || (old.stage === 'nde' && old.method !== input.method)) {
-		throw new JointError(
-			`Inspection #${id} is a ${stageName(old.stage, old.method)} record; a correction keeps the stage${old.method ? ' and method' : ''} of the record it replaces.`,
-			400,
-			'supersedes'
-		);
-	}
-	const later = tx
-		.select({ id: i.id })
+/** The joint's records in the order they were signed, with who signed them, for the rules. */
+function recordsOf(tx: Tx, jointId: number) {
+	return tx
+		.select({
+			id: i.id,
+			jointId: i.jointId,
+			stage: i.stage,
+			method: i.method,
+			repairCycle: i.repairCycle,
+			decision: i.decision,
+			supersedesId: i.supersedesId,
+			inspectedAt: i.inspectedAt,
+			inspector: schema.users.name
+		})
 		.from(i)
-		.where(and(eq(i.jointId, joint.id), eq(i.supersedesId, id)))
-		.get();
-	if (later) {
-		throw new JointError(
-			`Inspection #${id} has already been corrected by #${later.id}; correct #${later.id} instead.`,
-			409,
-			'supersedes'
-		);
-	}
-	if (old.stage !== 'fitup' && old.repairCycle !== derived.repairCycle) {
-		throw new JointError(
-			`Inspection #${id} belongs to weld ${displayWeldNumber(joint.number, old.repairCycle)}; the joint has since been repaired (${displayWeldNumber(joint.number, derived.repairCycle)}), so that record stands as it was.`,
-			409,
-			'supersedes'
-		);
-	}
-	return old;
-}
-
-function projectUnits(tx: Tx, projectId: number): UnitSystem {
-	return (
-		tx
-			.select({ units: schema.projects.units })
-			.from(schema.projects)
-			.where(eq(schema.projects.id, projectId))
-			.get()?.units ?? 'imperial'
-	);
+		.innerJoin(schema.users, eq(schema.users.id, i.inspectorId))
+		.where(eq(i.jointId, jointId))
+		.orderBy(asc(i.inspectedAt), asc(i.id))
+		.all();
 }
 
 function jointInput(joint: Joint): JointInput {
@@ -337,7 +164,7 @@ function judged(tx: Tx, joint: Joint, input: RecordInspection) {
 		jointInput(joint),
 		input.stage,
 		input.readings,
-		projectUnits(tx, joint.projectId)
+		projects.unitsOf(joint.projectId, tx)
 	);
 	return {
 		readings: result.readings,
@@ -364,47 +191,60 @@ export function jointSummary(joint: Joint) {
 
 /**
  * Record an inspection result on a joint, signed by the inspector, in one transaction with
- * the joint's state and version. Expected failures are JointErrors: 400 for input that cannot
+ * the joint's state and version. Expected failures are DomainErrors: 400 for input that cannot
  * be read or a missing reason, 404 for no joint, 409 for a step out of order.
  */
 export function record(jointId: number, input: RecordInspection, inspectorId: string) {
-	return db.transaction((tx) => {
-		const joint = row(jointId, tx);
-		if (!joint) throw new JointError('There is no such joint.', 404);
-		if (input.version !== undefined && input.version !== joint.version) {
-			throw new JointError(
-				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
-				409,
-				'version'
-			);
-		}
+	return events.afterCommit((tx, tell) => {
+		const joint = lockedJoint(tx, jointId, input.version);
 		if (joint.voidedAt) {
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
 				409
 			);
 		}
-		const state = stateInput(jointId, tx)!;
+		const records = recordsOf(tx, jointId);
+		const state = { ...stateInput(jointId, tx)!, inspections: records };
 		const derived = deriveJointState(state);
 		const correcting =
-			input.supersedes !== undefined ? supersededRow(tx, joint, input, derived) : undefined;
-		checkStageOrder(tx, joint, input, state, derived, correcting);
+			input.supersedes !== undefined
+				? records.find((r) => r.id === input.supersedes && r.jointId === jointId)
+				: undefined;
+		if (input.supersedes !== undefined) {
+			const old = correcting ?? tx.select().from(i).where(eq(i.id, input.supersedes)).get();
+			refuse(
+				correctionRequestRefusal(input.supersedes, old, input, joint, {
+					voided: false,
+					welded: state.welds.length > 0,
+					repairCycle: derived.repairCycle,
+					records
+				})
+			);
+		}
+		refuse(
+			stageOrderRefusal({
+				number: joint.number,
+				stage: input.stage,
+				method: input.method,
+				state,
+				derived,
+				correctingId: correcting?.id
+			})
+		);
 
 		const reason = input.reason?.trim() || null;
-		if (correcting && (reason === null || reason.length < 3)) {
-			throw new JointError(
+		if (correcting && !isReasonGiven(reason)) {
+			throw new DomainError(
 				`Say why inspection #${correcting.id} is corrected (e.g. "re-gauged: undercut was misread"); the reason stays with the record.`,
 				400,
 				'reason'
 			);
 		}
 		const verdict = judged(tx, joint, input);
-		const againstVerdict =
-			(input.decision === 'accept' && verdict.verdict === 'outside') ||
-			(input.decision === 'reject' && verdict.verdict === 'within');
-		if (againstVerdict && (reason === null || reason.length < 3)) {
+		const againstVerdict = isAgainstVerdict(input.decision, verdict.verdict);
+		if (againstVerdict && !isReasonGiven(reason)) {
 			const standard = verdict.set ? criteriaWords(verdict.set) : 'the code';
-			throw new JointError(
+			throw new DomainError(
 				verdict.verdict === 'outside'
 					? `The readings are outside the limits of ${standard}. To accept anyway, write the reason; the record is flagged as a decision against the verdict.`
 					: `The readings are within the limits of ${standard}. To reject anyway, write the reason; the record is flagged as a decision against the verdict.`,
@@ -450,7 +290,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			inspection,
 			joint,
 			extras: { indications: input.indications, welders: input.welders },
-			units: projectUnits(tx, joint.projectId),
+			units: projects.unitsOf(joint.projectId, tx),
 			userId: inspectorId
 		});
 		audit.record(
@@ -477,7 +317,7 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'recorded',
 			jointId,

@@ -3,9 +3,11 @@
  * derived from the records and cached in the same transaction as every change. Every write
  * names the version it was based on; a stale one is refused with 409.
  */
-import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
+import { DomainError, refuse } from './errors';
+import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
+import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import { lotSample } from './nde/standing';
@@ -25,20 +27,11 @@ import {
 	weldNumberSortKey
 } from '$lib/weld-numbers';
 import { jointLengths, type JointFields } from '$lib/schemas/joint';
+import { pinPointRefusal, type PageBox } from '$lib/pin-bounds';
 import type { UnitSystem } from './db/schema';
 
 type Reader = Pick<Db, 'select'>;
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-
-export class JointError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409,
-		readonly field?: string
-	) {
-		super(message);
-	}
-}
 
 const j = schema.joints;
 const p = schema.pins;
@@ -117,51 +110,8 @@ export function refreshState(
 
 // Reading -------------------------------------------------------------------------------
 
-/** The pins of one revision with their joints' states, as the overlay draws them. */
-/** Prepared once: the overlay asks for its pins on every change anyone makes. */
-function pinsQuery() {
-	return db
-		.select({
-			pinId: p.id,
-			jointId: j.id,
-			number: j.number,
-			repairCycle: j.repairCycle,
-			kind: j.kind,
-			location: j.location,
-			pageIndex: p.pageIndex,
-			x: p.x,
-			y: p.y,
-			state: j.state,
-			needsReview: p.needsReview,
-			version: j.version
-		})
-		.from(p)
-		.innerJoin(j, eq(j.id, p.jointId))
-		.where(eq(p.revisionId, sql.placeholder('revisionId')))
-		.orderBy(asc(j.sortKey))
-		.prepare();
-}
-let preparedPins: ReturnType<typeof pinsQuery> | undefined;
-
-export function pinsOf(revisionId: number) {
-	preparedPins ??= pinsQuery();
-	return preparedPins
-		.all({ revisionId })
-		.map((row) => ({ ...row, label: displayWeldNumber(row.number, row.repairCycle) }));
-}
-
 export function row(jointId: number, tx: Reader = db) {
 	return tx.select().from(j).where(eq(j.id, jointId)).get();
-}
-
-function projectUnits(projectId: number, tx: Reader = db): UnitSystem {
-	return (
-		tx
-			.select({ units: schema.projects.units })
-			.from(schema.projects)
-			.where(eq(schema.projects.id, projectId))
-			.get()?.units ?? 'imperial'
-	);
 }
 
 /** The joint with its state, next step, pins on every revision, and its whole history. */
@@ -305,7 +255,7 @@ export function detail(jointId: number) {
 
 function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 	const result = jointLengths(fields, units);
-	if (!result.ok) throw new JointError(result.message, 400, result.field);
+	if (!result.ok) throw new DomainError(result.message, 400, result.field);
 	return result.values;
 }
 
@@ -313,7 +263,18 @@ function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 function checkCriteriaSet(projectId: number, id: string, field: string, tx: Reader) {
 	if (criteriaSets.resolve(projectId, id, undefined, tx)) return;
 	const problem = criteriaSets.unknownSet(projectId, id, field, tx);
-	throw new JointError(problem.message, 400, field);
+	throw new DomainError(problem.message, 400, field);
+}
+
+/** The view box of one sheet, in PDF points. */
+export function pageBox(revisionId: number, pageIndex: number, tx: Reader = db): PageBox {
+	const page = tx
+		.select({ x0: schema.pages.x0, y0: schema.pages.y0, x1: schema.pages.x1, y1: schema.pages.y1 })
+		.from(schema.pages)
+		.where(and(eq(schema.pages.revisionId, revisionId), eq(schema.pages.pageIndex, pageIndex)))
+		.get();
+	if (!page) throw new DomainError(`The revision has no sheet ${pageIndex + 1}.`, 400, 'pageIndex');
+	return page;
 }
 
 function numbersOf(drawingId: number, tx: Reader): string[] {
@@ -354,17 +315,18 @@ export function place(input: PlacePin, userId: string) {
 		.innerJoin(schema.projects, eq(schema.projects.id, schema.drawings.projectId))
 		.where(eq(schema.revisions.id, input.revisionId))
 		.get();
-	if (!revision) throw new JointError('There is no such revision.', 404);
+	if (!revision) throw new DomainError('There is no such revision.', 404);
 	if (revision.status !== 'current')
-		throw new JointError('Joints are placed on the current revision only.', 409);
+		throw new DomainError('Joints are placed on the current revision only.', 409);
 	if (input.pageIndex >= revision.pageCount)
-		throw new JointError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
+		throw new DomainError(`The drawing has ${revision.pageCount} sheet(s).`, 400, 'pageIndex');
+	refuse(pinPointRefusal(pageBox(revision.id, input.pageIndex), input));
 	const location = input.joint.location ?? 'shop';
 	const lengths = lengthsOrThrow(input.joint, revision.units);
 	if (input.joint.criteriaSetId !== undefined) {
 		checkCriteriaSet(revision.projectId, input.joint.criteriaSetId, 'joint.criteriaSetId', db);
 	}
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const used = numbersOf(revision.drawingId, tx);
 		const line = input.joint.line ?? revision.line;
 		// Numbers run per drawing, or on along the whole line across its drawings.
@@ -383,7 +345,7 @@ export function place(input: PlacePin, userId: string) {
 		if (!number && input.insertAfter) {
 			number = insertedWeldNumber(input.insertAfter, used) ?? undefined;
 			if (!number)
-				throw new JointError(
+				throw new DomainError(
 					`No letter is left to insert after ${input.insertAfter}.`,
 					409,
 					'insertAfter'
@@ -394,7 +356,7 @@ export function place(input: PlacePin, userId: string) {
 			location === 'field' ? revision.rule.fieldPrefix : revision.rule.shopPrefix
 		);
 		if (used.some((n) => n.toUpperCase() === number!.toUpperCase())) {
-			throw new JointError(
+			throw new DomainError(
 				`Weld number ${number} is already used on this drawing (numbers are never reused, also after a joint is voided).`,
 				409,
 				'number'
@@ -454,7 +416,7 @@ export function place(input: PlacePin, userId: string) {
 			},
 			tx
 		);
-		events.publish(revision.projectId, {
+		tell(revision.projectId, {
 			type: 'pin',
 			action: 'created',
 			revisionId: revision.id,
@@ -466,16 +428,19 @@ export function place(input: PlacePin, userId: string) {
 	});
 }
 
-function lockedJoint(tx: Tx, jointId: number, version: number) {
+/** What every joint write answers when the joint changed after the caller read it. */
+export const STALE_JOINT = (number: string) =>
+	`Someone else changed joint ${number} since you opened it. Reload it and check before you save again.`;
+
+/**
+ * The joint, read inside the write's transaction, refused unless it is still at the version
+ * the caller read: every write that changes a joint goes through here, so two people never
+ * overwrite each other unseen.
+ */
+export function lockedJoint(tx: Tx, jointId: number, version: number) {
 	const joint = row(jointId, tx);
-	if (!joint) throw new JointError('There is no such joint.', 404);
-	if (joint.version !== version) {
-		throw new JointError(
-			`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${version}). It has been reloaded; check it and try again.`,
-			409,
-			'version'
-		);
-	}
+	if (!joint) throw new DomainError('There is no such joint.', 404);
+	if (joint.version !== version) throw new DomainError(STALE_JOINT(joint.number), 409, 'version');
 	return joint;
 }
 
@@ -485,21 +450,21 @@ export function update(
 	changes: Partial<JointFields> & { number?: string; version: number },
 	userId: string
 ) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, changes.version);
 		if (joint.voidedAt)
-			throw new JointError(`Joint ${joint.number} is void and can no longer change.`, 409);
+			throw new DomainError(`Joint ${joint.number} is void and can no longer change.`, 409);
 		const { version: _version, size, thickness, requiredSize, number, ...plain } = changes;
 		const lengths = lengthsOrThrow(
 			{ size, thickness, requiredSize },
-			projectUnits(joint.projectId, tx)
+			projects.unitsOf(joint.projectId, tx)
 		);
 		if (plain.criteriaSetId !== undefined && plain.criteriaSetId !== joint.criteriaSetId) {
 			checkCriteriaSet(joint.projectId, plain.criteriaSetId, 'criteriaSetId', tx);
 		}
 		if (number && number !== joint.number) {
 			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
-				throw new JointError(
+				throw new DomainError(
 					`Weld number ${number} is already used on this drawing.`,
 					409,
 					'number'
@@ -533,7 +498,7 @@ export function update(
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'updated',
 			jointId,
@@ -568,9 +533,9 @@ function markVoid(
 
 /** Void a joint: it stays in the log, greyed, and its number is never used again. */
 export function voidJoint(jointId: number, reason: string, version: number, userId: string) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, version);
-		if (joint.voidedAt) throw new JointError(`Joint ${joint.number} is already void.`, 409);
+		if (joint.voidedAt) throw new DomainError(`Joint ${joint.number} is already void.`, 409);
 		const now = Date.now();
 		markVoid(tx, joint, reason, userId, now);
 		audit.record(
@@ -585,7 +550,7 @@ export function voidJoint(jointId: number, reason: string, version: number, user
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'voided',
 			jointId,
@@ -593,109 +558,6 @@ export function voidJoint(jointId: number, reason: string, version: number, user
 			by: userId
 		});
 		return row(jointId, tx)!;
-	});
-}
-
-function pinWithJoint(tx: Tx, pinId: number) {
-	const pin = tx.select().from(p).where(eq(p.id, pinId)).get();
-	if (!pin) throw new JointError('There is no such pin.', 404);
-	return pin;
-}
-
-/** Move a pin (drag on the sheet); confirms it when it was waiting for review. */
-export function movePin(
-	pinId: number,
-	to: { x: number; y: number; pageIndex?: number; version: number },
-	userId: string
-) {
-	return db.transaction((tx) => {
-		const pin = pinWithJoint(tx, pinId);
-		const joint = lockedJoint(tx, pin.jointId, to.version);
-		const revision = tx
-			.select({ status: schema.revisions.status })
-			.from(schema.revisions)
-			.where(eq(schema.revisions.id, pin.revisionId))
-			.get();
-		if (revision?.status !== 'current')
-			throw new JointError('Pins on a superseded revision stay where they were recorded.', 409);
-		if (joint.voidedAt)
-			throw new JointError(`Joint ${joint.number} is void; its pin stays where it was.`, 409);
-		const now = Date.now();
-		const moved = tx
-			.update(p)
-			.set({
-				x: to.x,
-				y: to.y,
-				pageIndex: to.pageIndex ?? pin.pageIndex,
-				needsReview: false,
-				updatedAt: now
-			})
-			.where(eq(p.id, pinId))
-			.returning()
-			.get();
-		const updated = tx
-			.update(j)
-			.set({ version: joint.version + 1, updatedAt: now })
-			.where(eq(j.id, joint.id))
-			.returning()
-			.get();
-		audit.record(
-			{
-				action: 'pin_move',
-				entity: 'pin',
-				entityId: pinId,
-				projectId: joint.projectId,
-				userId,
-				before: { pageIndex: pin.pageIndex, x: pin.x, y: pin.y },
-				after: { pageIndex: moved.pageIndex, x: moved.x, y: moved.y }
-			},
-			tx
-		);
-		events.publish(joint.projectId, {
-			type: 'pin',
-			action: 'moved',
-			revisionId: pin.revisionId,
-			jointId: joint.id,
-			pinId,
-			by: userId
-		});
-		return { pin: moved, version: updated.version };
-	});
-}
-
-/** Confirm a pin carried to a new revision: the joint is where it was. */
-export function confirmPin(pinId: number, version: number, userId: string) {
-	return db.transaction((tx) => {
-		const pin = pinWithJoint(tx, pinId);
-		const joint = lockedJoint(tx, pin.jointId, version);
-		const now = Date.now();
-		tx.update(p).set({ needsReview: false, updatedAt: now }).where(eq(p.id, pinId)).run();
-		const updated = tx
-			.update(j)
-			.set({ version: joint.version + 1, updatedAt: now })
-			.where(eq(j.id, joint.id))
-			.returning()
-			.get();
-		audit.record(
-			{
-				action: 'pin_confirm',
-				entity: 'pin',
-				entityId: pinId,
-				projectId: joint.projectId,
-				userId,
-				after: { revisionId: pin.revisionId }
-			},
-			tx
-		);
-		events.publish(joint.projectId, {
-			type: 'pin',
-			action: 'reviewed',
-			revisionId: pin.revisionId,
-			jointId: joint.id,
-			pinId,
-			by: userId
-		});
-		return { version: updated.version };
 	});
 }
 
@@ -724,7 +586,7 @@ const CARRIED = [
  * requirement. One transaction, audited on both joints; the new one starts awaiting fit-up.
  */
 export function cutOut(jointId: number, reason: string, version: number, userId: string) {
-	return db.transaction((tx) => {
+	return events.afterCommit((tx, tell) => {
 		const joint = lockedJoint(tx, jointId, version);
 		const label = displayWeldNumber(joint.number, joint.repairCycle);
 		const replaced = tx
@@ -733,12 +595,12 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(eq(j.replacesJointId, jointId))
 			.get();
 		if (replaced)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} has already been cut out and replaced by ${replaced.number}.`,
 				409
 			);
 		if (joint.voidedAt)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); a void joint is not cut out.`,
 				409
 			);
@@ -748,7 +610,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(eq(schema.welds.jointId, jointId))
 			.get();
 		if (!welded)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${label} has not been welded, so there is nothing to cut out. Record a new fit-up, or void the joint if it no longer exists.`,
 				409
 			);
@@ -759,7 +621,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.where(and(eq(p.jointId, jointId), eq(schema.revisions.status, 'current')))
 			.get();
 		if (!pin)
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} has no pin on the drawing's current revision; place or review it there first, so the new joint can be pinned at the same point.`,
 				409
 			);
@@ -838,14 +700,14 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'voided',
 			jointId,
 			drawingId: joint.drawingId,
 			by: userId
 		});
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'pin',
 			action: 'created',
 			revisionId: newPin.revisionId,

@@ -4,6 +4,7 @@
  * database, so sign-in links and notices work on a laptop exactly as in production and an
  * administrator can read them on the mail page.
  */
+import type { Readable } from 'node:stream';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type SMTPTransport from 'nodemailer/lib/smtp-transport';
 import { SMTPServer } from 'smtp-server';
@@ -29,6 +30,26 @@ function addresses(field: AddressObject | AddressObject[] | undefined): string {
 		.join(', ');
 }
 
+/** Store a message the stand-in received, so the mail page can show it. */
+async function keepMessage(stream: Readable, callback: (error?: Error | null) => void) {
+	try {
+		const parsed = await simpleParser(stream);
+		db.insert(schema.mailMessages)
+			.values({
+				from: addresses(parsed.from),
+				to: addresses(parsed.to),
+				subject: parsed.subject ?? '(no subject)',
+				text: parsed.text ?? '',
+				html: typeof parsed.html === 'string' ? parsed.html : null,
+				messageId: parsed.messageId ?? null
+			})
+			.run();
+		callback();
+	} catch (error) {
+		callback(error instanceof Error ? error : new Error(String(error)));
+	}
+}
+
 /** Start the stand-in once per process; resolves to its port. */
 export function startStandIn(): Promise<number> {
 	if (state.standInPort) return Promise.resolve(state.standInPort);
@@ -38,23 +59,9 @@ export function startStandIn(): Promise<number> {
 			disabledCommands: ['STARTTLS'],
 			banner: 'Tacksheet local mail stand-in',
 			size: 10 * 1024 * 1024,
-			async onData(stream, _session, callback) {
-				try {
-					const parsed = await simpleParser(stream);
-					db.insert(schema.mailMessages)
-						.values({
-							from: addresses(parsed.from),
-							to: addresses(parsed.to),
-							subject: parsed.subject ?? '(no subject)',
-							text: parsed.text ?? '',
-							html: typeof parsed.html === 'string' ? parsed.html : null,
-							messageId: parsed.messageId ?? null
-						})
-						.run();
-					callback();
-				} catch (error) {
-					callback(error instanceof Error ? error : new Error(String(error)));
-				}
+			onData(stream, _session, callback) {
+				// Every outcome reaches the callback, so nothing is left waiting on the promise.
+				void keepMessage(stream, callback);
 			}
 		});
 		server.on('error', (error) => console.error('Mail stand-in:', error.message));

@@ -1,9 +1,11 @@
 /** Projects and the counts their overview shows. */
 import { and, asc, count, eq, inArray, ne } from 'drizzle-orm';
-import { db, schema } from './db';
+import { db, schema, type Db } from './db';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import * as audit from './audit';
 import type { z } from 'zod';
+import type { UnitSystem } from '$lib/domain';
+import { visibleProjectIds, type Principal } from '$lib/permissions';
 import type { projectSettingsSchema } from '$lib/schemas/project';
 
 export function list(projectIds?: readonly number[]) {
@@ -15,6 +17,39 @@ export function list(projectIds?: readonly number[]) {
 				.all()
 		: query.orderBy(asc(schema.projects.code)).all();
 	return rows;
+}
+
+export type NewProject = Pick<typeof schema.projects.$inferInsert, 'code' | 'name'> &
+	Partial<
+		Pick<
+			typeof schema.projects.$inferInsert,
+			| 'client'
+			| 'contractor'
+			| 'site'
+			| 'units'
+			| 'defaultCriteriaSet'
+			| 'weldNumberRule'
+			| 'ndeLotRule'
+		>
+	>;
+
+/** Open a project; what it was opened with goes to the audit trail. */
+export function create(input: NewProject, userId: string) {
+	return db.transaction((tx) => {
+		const project = tx.insert(schema.projects).values(input).returning().get();
+		audit.record(
+			{
+				action: 'create',
+				entity: 'project',
+				entityId: project.id,
+				projectId: project.id,
+				userId,
+				after: { ...input }
+			},
+			tx
+		);
+		return project;
+	});
 }
 
 export function get(projectId: number) {
@@ -120,4 +155,20 @@ export function updateSettings(
 		);
 		return updated;
 	});
+}
+
+/** The project's unit system: what a bare number typed on its forms means. */
+export function unitsOf(projectId: number, reader: Pick<Db, 'select'> = db): UnitSystem {
+	return (
+		reader
+			.select({ units: schema.projects.units })
+			.from(schema.projects)
+			.where(eq(schema.projects.id, projectId))
+			.get()?.units ?? 'imperial'
+	);
+}
+
+/** The projects the caller may see, as the project switcher and the API list them. */
+export function visibleTo(principal: Principal) {
+	return list(visibleProjectIds(principal));
 }

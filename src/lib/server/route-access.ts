@@ -183,14 +183,82 @@ export const ROUTES: Record<string, RouteRules> = {
 
 /** The rule for a request, or undefined when the table does not cover it (refused). */
 export function ruleFor(routeId: string, method: string, search: string): Rule | undefined {
+	const answer = routeRule(routeId, method, search);
+	return answer.ok ? answer.rule : undefined;
+}
+
+export type RouteAnswer =
+	| { ok: true; rule: Rule }
+	| { ok: false; status: 400 | 404 | 405; message: string; allow?: string };
+
+/** The methods a route answers, as an `Allow` header lists them. */
+export function allowedMethods(routeId: string): string[] {
 	const rules = ROUTES[routeId];
-	if (!rules) return undefined;
-	if (method === 'HEAD') method = 'GET';
-	if (method === 'POST' && rules.actions) {
-		const name = search.startsWith('?/')
-			? decodeURIComponent(search.slice(2).split('&')[0])
-			: 'default';
-		return rules.actions[name];
+	if (!rules) return [];
+	const page = !routeId.startsWith('/api/');
+	const methods: string[] = [];
+	if (rules.GET) methods.push('GET', 'HEAD');
+	if (page ? rules.actions : rules.POST) methods.push('POST');
+	if (!page) for (const m of ['PUT', 'PATCH', 'DELETE'] as const) if (rules[m]) methods.push(m);
+	return methods;
+}
+
+/**
+ * The form action a POST to a page names, read as SvelteKit reads it (the first query key
+ * starting with `/`): undefined when none is named, null when the name is not valid
+ * percent-encoding.
+ */
+export function actionName(search: string): string | null | undefined {
+	const raw = search
+		.replace(/^\?/, '')
+		.split('&')
+		.map((pair) => pair.split('=')[0])
+		.find((key) => key.startsWith('/') || key.startsWith('%2F') || key.startsWith('%2f'));
+	if (raw === undefined) return undefined;
+	try {
+		return decodeURIComponent(raw.replaceAll('+', ' ')).slice(1);
+	} catch {
+		return null;
 	}
-	return rules[method as Method];
+}
+
+/**
+ * What the route table says of a request: its rule, or the 4xx answer for a method the route
+ * does not take (405 with `Allow`), a form action it does not have (404), or an action name
+ * missing where the page has only named actions, or badly encoded (400).
+ */
+export function routeRule(routeId: string, method: string, search: string): RouteAnswer {
+	const rules = ROUTES[routeId];
+	if (!rules)
+		return { ok: false, status: 404, message: 'This request is not one Tacksheet answers.' };
+	const page = !routeId.startsWith('/api/');
+	const asked = method === 'HEAD' ? 'GET' : method;
+	const notAllowed = (): RouteAnswer => ({
+		ok: false,
+		status: 405,
+		message: `${method} is not an answer this address gives; it takes ${allowedMethods(routeId).join(', ')}.`,
+		allow: allowedMethods(routeId).join(', ')
+	});
+	if (page && asked === 'POST') {
+		if (!rules.actions) return notAllowed();
+		const name = actionName(search);
+		if (name === null || name === 'default')
+			return { ok: false, status: 400, message: 'The form action name is not valid.' };
+		const rule = rules.actions[name ?? 'default'];
+		if (rule) return { ok: true, rule };
+		if (name === undefined)
+			return {
+				ok: false,
+				status: 400,
+				message: `Name the form action: ${Object.keys(rules.actions)
+					.map((a) => `?/${a}`)
+					.join(', ')}.`
+			};
+		return { ok: false, status: 404, message: `This page has no form action "${name}".` };
+	}
+	if (page && asked !== 'GET') return notAllowed();
+	const rule = (['GET', 'POST', 'PUT', 'PATCH', 'DELETE'] as const).includes(asked as Method)
+		? rules[asked as Method]
+		: undefined;
+	return rule ? { ok: true, rule } : notAllowed();
 }

@@ -93,9 +93,70 @@ export function refused(attempt: Attempt): void {
 	});
 }
 
-/** For tests: forget every attempt. */
+/** For tests: forget every attempt and every link request. */
 export function reset(): void {
 	entries.clear();
+	links.clear();
+}
+
+// Sign-in links ----------------------------------------------------------------------------
+
+/** Each link is an e-mail sent in our name: a few per address, more per client (a site office). */
+const LINKS_PER_WINDOW = { email: 3, client: 10 } as const;
+const links = new Map<string, number[]>();
+
+export const linkLimits = { windowMs: WINDOW_MS, ...LINKS_PER_WINDOW };
+
+/**
+ * Counts a request for a sign-in link and says whether one may be sent. Over the limit nothing
+ * is sent, and the person is told the same as always (so the answer says nothing of accounts).
+ */
+export function linkRequested(attempt: Attempt, now = Date.now()): boolean {
+	const k = keys(attempt);
+	const recent = (key: string) => (links.get(key) ?? []).filter((at) => now - at < WINDOW_MS);
+	const email = recent(k.email);
+	const client = recent(k.client);
+	const allowed = email.length < LINKS_PER_WINDOW.email && client.length < LINKS_PER_WINDOW.client;
+	if (allowed) {
+		email.push(now);
+		client.push(now);
+	} else {
+		audit.record({
+			action: 'sign_in_link_refused',
+			entity: 'user',
+			actorEmail: attempt.email.trim().toLowerCase().slice(0, 320),
+			ip: attempt.client
+		});
+	}
+	if (links.size > 10_000) links.clear();
+	links.set(k.email, email);
+	links.set(k.client, client);
+	return allowed;
+}
+
+/**
+ * The fields of a request to Auth.js, read exactly as Auth.js reads them (a JSON body, or a
+ * URL-encoded form where a repeated field counts by its last value), so the guard counts the
+ * address Auth.js will sign in, not another one sent beside it. Anything else has no fields.
+ */
+export async function authFields(request: Request): Promise<Record<string, unknown>> {
+	const type = request.headers.get('content-type') ?? '';
+	try {
+		if (type.includes('application/json')) {
+			const body: unknown = await request.clone().json();
+			return body && typeof body === 'object' ? (body as Record<string, unknown>) : {};
+		}
+		if (type.includes('application/x-www-form-urlencoded'))
+			return Object.fromEntries(new URLSearchParams(await request.clone().text()));
+	} catch {
+		// An unreadable body signs nobody in.
+	}
+	return {};
+}
+
+/** The address a field names, as Auth.js normalises it. */
+export function addressOf(value: unknown): string {
+	return typeof value === 'string' ? value.normalize('NFKC').trim().toLowerCase() : '';
 }
 
 export function pause(ms: number): Promise<void> {

@@ -33,8 +33,9 @@ export async function adopt(key: string, tempPath: string): Promise<void> {
 	await fsp.rename(tempPath, full);
 }
 
-export function read(key: string): fs.ReadStream {
-	return fs.createReadStream(pathOf(key));
+/** The file, or the bytes `start`…`end` of it (both inclusive). */
+export function read(key: string, range?: { start: number; end: number }): fs.ReadStream {
+	return fs.createReadStream(pathOf(key), range);
 }
 
 export async function readAll(key: string): Promise<Uint8Array> {

@@ -1,7 +1,10 @@
 /** People: accounts, their project roles, passwords and personal API tokens. */
+import { DomainError } from './errors';
 import crypto from 'node:crypto';
-import { and, asc, eq, isNull } from 'drizzle-orm';
-import { db, schema } from './db';
+import { and, asc, count, eq, isNull, sql } from 'drizzle-orm';
+import { db, schema, type Db } from './db';
+import { config } from './config';
+import { newPassword } from '$lib/schemas/account';
 import * as audit from './audit';
 import { hashPassword, verifyPassword } from './passwords';
 import type { Principal, ProjectRole } from '$lib/permissions';
@@ -64,6 +67,40 @@ export function principal(userId: string): SignedInUser | null {
 	};
 }
 
+/**
+ * The caller behind a session cookie: as `principal`, and only while the session's
+ * generation is the user's current one (sign-out, a password change or reset and disabling
+ * the account raise it). A cookie from before carries no generation and counts as 0.
+ */
+export function sessionPrincipal(userId: string, generation: number): SignedInUser | null {
+	const user = byId(userId);
+	if (!user || user.sessionGeneration !== generation) return null;
+	return principal(userId);
+}
+
+export function sessionGeneration(userId: string): number {
+	return byId(userId)?.sessionGeneration ?? 0;
+}
+
+type Tx = Parameters<Parameters<typeof db.transaction>[0]>[0];
+
+/** Ends every session the user has now; the next sign-in starts a new generation. */
+export function endSessions(userId: string, tx: Tx | typeof db = db): void {
+	tx.update(schema.users)
+		.set({ sessionGeneration: sql`${schema.users.sessionGeneration} + 1` })
+		.where(eq(schema.users.id, userId))
+		.run();
+}
+
+/** Revokes every live personal API token of the user; returns how many. */
+function revokeAllTokens(userId: string, tx: Tx): number {
+	return tx
+		.update(schema.apiTokens)
+		.set({ revokedAt: Date.now() })
+		.where(and(eq(schema.apiTokens.userId, userId), isNull(schema.apiTokens.revokedAt)))
+		.run().changes;
+}
+
 export function list() {
 	const rows = db.select().from(schema.users).orderBy(asc(schema.users.email)).all();
 	const memberships = db
@@ -84,20 +121,11 @@ export function list() {
 	}));
 }
 
-export class AccountError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409
-	) {
-		super(message);
-	}
-}
-
 export function invite(
 	input: { email: string; name: string; projectId?: number; role?: ProjectRole },
 	actorId: string
 ) {
-	if (byEmail(input.email)) throw new AccountError(`${input.email} already has an account.`, 409);
+	if (byEmail(input.email)) throw new DomainError(`${input.email} already has an account.`, 409);
 	return db.transaction((tx) => {
 		const user = tx
 			.insert(schema.users)
@@ -137,14 +165,17 @@ export function invite(
 
 export function setDisabled(userId: string, disabled: boolean, actorId: string) {
 	if (userId === actorId && disabled)
-		throw new AccountError('You cannot disable your own account.', 409);
+		throw new DomainError('You cannot disable your own account.', 409);
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users)
 			.set({ disabledAt: disabled ? Date.now() : null })
 			.where(eq(schema.users.id, userId))
 			.run();
+		// Enabling again does not bring back what disabling ended: the person signs in anew.
+		const tokensRevoked = disabled ? revokeAllTokens(userId, tx) : 0;
+		if (disabled) endSessions(userId, tx);
 		audit.record(
 			{
 				action: disabled ? 'disable' : 'enable',
@@ -152,7 +183,7 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 				entityId: userId,
 				userId: actorId,
 				before: { disabled: user.disabledAt != null },
-				after: { disabled }
+				after: disabled ? { disabled, tokensRevoked } : { disabled }
 			},
 			tx
 		);
@@ -160,12 +191,18 @@ export function setDisabled(userId: string, disabled: boolean, actorId: string) 
 	return user;
 }
 
-/** Clears the password; the person signs in with an e-mailed link and chooses a new one. */
+/**
+ * Clears the password; the person signs in with an e-mailed link and chooses a new one. A
+ * reset is what is done for an account that may be in other hands, so it also ends every
+ * session and revokes every personal API token.
+ */
 export function resetPassword(userId: string, actorId: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash: null }).where(eq(schema.users.id, userId)).run();
+		endSessions(userId, tx);
+		const tokensRevoked = revokeAllTokens(userId, tx);
 		audit.record(
 			{
 				action: 'password_reset',
@@ -173,7 +210,7 @@ export function resetPassword(userId: string, actorId: string) {
 				entityId: userId,
 				userId: actorId,
 				before: { hasPassword: user.passwordHash != null },
-				after: { hasPassword: false }
+				after: { hasPassword: false, tokensRevoked }
 			},
 			tx
 		);
@@ -183,13 +220,16 @@ export function resetPassword(userId: string, actorId: string) {
 
 export async function changePassword(userId: string, current: string, next: string) {
 	const user = byId(userId);
-	if (!user) throw new AccountError('There is no such user.', 404);
+	if (!user) throw new DomainError('There is no such user.', 404);
 	if (user.passwordHash && !(await verifyPassword(current, user.passwordHash))) {
-		throw new AccountError('Your current password is not right.', 400);
+		throw new DomainError('Your current password is not right.', 400, 'current');
 	}
 	const passwordHash = await hashPassword(next);
+	// Every session ends, this one too (the caller signs it in again); personal API tokens are
+	// the person's own keys for scripts and stay until revoked.
 	db.transaction((tx) => {
 		tx.update(schema.users).set({ passwordHash }).where(eq(schema.users.id, userId)).run();
+		endSessions(userId, tx);
 		audit.record(
 			{
 				action: 'password_change',
@@ -333,7 +373,7 @@ export function revokeToken(userId: string, tokenId: number) {
 			audit.record({ action: 'token_revoke', entity: 'api_token', entityId: tokenId, userId }, tx);
 		return result.changes > 0;
 	});
-	if (!done) throw new AccountError('There is no such live token.', 404);
+	if (!done) throw new DomainError('There is no such live token.', 404);
 }
 
 /** The user behind a bearer token, or null for an unknown or revoked one. */
@@ -362,4 +402,43 @@ export function principalFromToken(token: string): SignedInUser | null {
 			.run();
 	}
 	return { ...user, tokenId: row.id };
+}
+
+/**
+ * The first administrator of a production install (no demo job): from ADMIN_EMAIL and
+ * ADMIN_PASSWORD, once, into an empty database. Returns whether it was created; an install
+ * without them, or with a password the password rule refuses, does not start.
+ */
+export async function setUpFirstAdmin(into: Db = db): Promise<boolean> {
+	const existing = into.select({ n: count() }).from(schema.users).get()?.n ?? 0;
+	if (existing > 0) return false;
+	if (!config.adminEmail || !config.adminPassword) {
+		throw new Error(
+			'TACKSHEET_DEMO=0 starts with an empty database: set ADMIN_EMAIL and ADMIN_PASSWORD for the first administrator.'
+		);
+	}
+	const password = newPassword.safeParse(config.adminPassword);
+	if (!password.success) {
+		throw new Error(`ADMIN_PASSWORD: ${password.error.issues[0].message}`);
+	}
+	const user = into
+		.insert(schema.users)
+		.values({
+			email: config.adminEmail.toLowerCase(),
+			name: 'Administrator',
+			isAdmin: true,
+			passwordHash: await hashPassword(config.adminPassword)
+		})
+		.returning({ id: schema.users.id })
+		.get();
+	audit.record(
+		{
+			action: 'create',
+			entity: 'user',
+			entityId: user.id,
+			after: { email: config.adminEmail, isAdmin: true }
+		},
+		into
+	);
+	return true;
 }

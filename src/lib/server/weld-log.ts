@@ -12,6 +12,7 @@
 import type { Writable } from 'node:stream';
 import { once } from 'node:events';
 import ExcelJS from 'exceljs';
+import { csvLine, csvRows } from './csv';
 import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
@@ -20,9 +21,10 @@ import { stateRank } from './db/schema';
 import {
 	COMPLETE_STATES,
 	displayWeldNumber,
-	type Decision,
-	type JointState
+	effectiveInspections,
+	type Decision
 } from '$lib/joint-state';
+import { standingSql } from './inspections';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
 import type { WeldLogFilter, WeldLogQuery } from '$lib/schemas/weld-log';
@@ -40,9 +42,6 @@ const CHUNK = 1000;
 
 /** Sorts that read the drawing's own columns, and so join it. */
 const BY_DRAWING = new Set<WeldLogFilter['sort']>(['drawing', 'area']);
-
-/** An inspection no later row corrects: the one that counts. */
-const standing = sql`not exists (select 1 from ${i} as later where later.supersedes_id = ${i.id})`;
 
 function drawingsWhere(projectId: number, condition: SQL) {
 	return db
@@ -98,7 +97,7 @@ function whereOf(projectId: number, filter: WeldLogFilter, joined: boolean): SQL
 					db
 						.select({ jointId: i.jointId })
 						.from(i)
-						.where(and(sql`${i.againstVerdict} = 1`, standing))
+						.where(and(sql`${i.againstVerdict} = 1`, standingSql()))
 				)
 			: undefined,
 		filter.q
@@ -209,9 +208,12 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 				.all()
 		: [];
 
-	// Corrections replace the row they name, as they do for the joint's state.
+	// Every record, in the order signed; the standing rule then puts each correction in the
+	// place of the row it names, exactly as the joint's state reads them.
 	const records = db
 		.select({
+			id: i.id,
+			supersedesId: i.supersedesId,
 			jointId: i.jointId,
 			stage: i.stage,
 			method: i.method,
@@ -224,7 +226,7 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 		})
 		.from(i)
 		.leftJoin(schema.users, eq(schema.users.id, i.inspectorId))
-		.where(and(inArray(i.jointId, ids), standing))
+		.where(inArray(i.jointId, ids))
 		.orderBy(asc(i.inspectedAt), asc(i.id))
 		.all();
 
@@ -242,7 +244,7 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 
 	const byId = new Map(
 		base.map((row) => {
-			const own = recordsOf.get(row.id) ?? [];
+			const own = effectiveInspections(recordsOf.get(row.id) ?? []);
 			const fitup = own.findLast((rec) => rec.stage === 'fitup');
 			const visual = own.findLast(
 				(rec) => rec.stage === 'visual' && rec.repairCycle === row.repairCycle
@@ -330,11 +332,6 @@ export function* iterate(projectId: number, filter: WeldLogFilter): Generator<We
 		yield* rowsOf(ids.slice(start, start + CHUNK));
 }
 
-function csvField(value: string | number): string {
-	const text = String(value);
-	return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
-}
-
 async function write(writable: Writable, text: string): Promise<void> {
 	if (!writable.write(text)) await once(writable, 'drain');
 }
@@ -346,17 +343,16 @@ export async function writeCsv(
 	columns: readonly { header: string; value: (row: WeldLogRow) => string | number }[] = COLUMNS
 ): Promise<void> {
 	// A byte-order mark, so a spreadsheet opened by double-click reads the file as UTF-8.
-	await write(writable, '\uFEFF' + columns.map((c) => csvField(c.header)).join(',') + '\r\n');
-	let batch = '';
-	let n = 0;
+	await write(writable, '\uFEFF' + csvLine(columns.map((c) => c.header)));
+	let batch: (string | number)[][] = [];
 	for (const row of rows) {
-		batch += columns.map((c) => csvField(c.value(row))).join(',') + '\r\n';
-		if (++n % 500 === 0) {
-			await write(writable, batch);
-			batch = '';
+		batch.push(columns.map((c) => c.value(row)));
+		if (batch.length === 500) {
+			await write(writable, csvRows(batch));
+			batch = [];
 		}
 	}
-	if (batch) await write(writable, batch);
+	if (batch.length > 0) await write(writable, csvRows(batch));
 	writable.end();
 	await once(writable, 'finish');
 }

@@ -2,43 +2,24 @@
  * The welder register of a project: stamps, names, qualified processes with their continuity,
  * and each welder's record (welds made, examined, rejected, repair rate on a joint basis).
  */
+import { DomainError } from './errors';
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
-import { addDays, checkQualification, continuityValidThrough } from './welds';
+import { stampKey } from '$lib/domain';
+import { standingSql } from './inspections';
+import { addDays, checkQualification, validThrough } from '$lib/welder-qualification';
 import type { QualificationInput, WelderInput } from '$lib/schemas/outstanding';
 
 /** Lapses within this many days are listed so the foreman can renew or reassign in time. */
 export const LAPSE_WARNING_DAYS = 30;
 
-export class WelderError extends Error {
-	constructor(
-		message: string,
-		readonly status: 400 | 404 | 409,
-		readonly field?: string
-	) {
-		super(message);
-	}
-}
-
 function todayUtc(): string {
 	return new Date().toISOString().slice(0, 10);
 }
 
-type QualificationRow = typeof schema.welderQualifications.$inferSelect;
-
-/**
- * The last day the welder may weld the process: the six-month continuity date of welds.ts
- * (ASME BPVC Section IX QW-322.1; AWS D1.1:2020 6.2.3.1), counted from the later of the test
- * and the last use as checkQualification counts it, or the record's own expiry if sooner.
- */
-export function validThrough(
-	q: Pick<QualificationRow, 'qualifiedOn' | 'expiresOn' | 'lastUsedOn'>
-) {
-	const from = q.lastUsedOn && q.lastUsedOn > q.qualifiedOn ? q.lastUsedOn : q.qualifiedOn;
-	const continuity = continuityValidThrough(from);
-	return q.expiresOn && q.expiresOn < continuity ? q.expiresOn : continuity;
-}
+/** The last day a welder may weld a process, for the register. */
+export { validThrough };
 
 /** Per welder: welds stamped, welds with an NDE result, and of those, welds rejected. */
 function records(projectId: number) {
@@ -54,7 +35,7 @@ function records(projectId: number) {
 		join ${schema.welds} w on w.id = ww.weld_id
 		left join ${schema.inspections} i on i.joint_id = w.joint_id and i.stage = 'nde'
 			and i.repair_cycle = w.repair_cycle
-			and i.id not in (select supersedes_id from ${schema.inspections} where supersedes_id is not null)
+			and ${standingSql(sql`i.id`)}
 		where wr.project_id = ${projectId}
 		group by ww.welder_id`);
 }
@@ -162,7 +143,7 @@ function ownWelder(projectId: number, welderId: number) {
 		.from(schema.welders)
 		.where(and(eq(schema.welders.id, welderId), eq(schema.welders.projectId, projectId)))
 		.get();
-	if (!welder) throw new WelderError('There is no such welder on this project.', 404, 'welderId');
+	if (!welder) throw new DomainError('There is no such welder on this project.', 404, 'welderId');
 	return welder;
 }
 
@@ -175,12 +156,12 @@ export function create(projectId: number, input: WelderInput, userId: string) {
 			.where(
 				and(
 					eq(schema.welders.projectId, projectId),
-					sql`upper(${schema.welders.stamp}) = ${input.stamp.toUpperCase()}`
+					eq(schema.welders.stampKey, stampKey(input.stamp))
 				)
 			)
 			.get();
 		if (taken) {
-			throw new WelderError(
+			throw new DomainError(
 				`Stamp ${taken.stamp} is already ${taken.name}'s on this project; each welder's stamp is unique so every weld traces to one person.`,
 				409,
 				'stamp'
@@ -188,7 +169,13 @@ export function create(projectId: number, input: WelderInput, userId: string) {
 		}
 		const welder = tx
 			.insert(schema.welders)
-			.values({ projectId, stamp: input.stamp, name: input.name, employer: input.employer })
+			.values({
+				projectId,
+				stamp: input.stamp,
+				stampKey: stampKey(input.stamp),
+				name: input.name,
+				employer: input.employer
+			})
 			.returning()
 			.get();
 		for (const q of input.processes) {

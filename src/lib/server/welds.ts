@@ -8,22 +8,23 @@
  * fill and cap), else from the WPS text when it names one (`WPS-CS-01 GTAW/SMAW`), else the
  * weld is refused with 400 asking for it.
  */
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from './db';
 import * as audit from './audit';
 import * as events from './events';
-import { JointError, refreshState, row, stateInput } from './joints';
+import { DomainError } from './errors';
+import { lockedJoint, refreshState, row, stateInput } from './joints';
 import * as nde from './nde';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
+import { can, type Principal } from '$lib/permissions';
+import { addDays, checkQualification, type QualificationCheck } from '$lib/welder-qualification';
+
+/** The continuity rules, for the callers that knew them here. */
+export { checkQualification, continuityValidThrough } from '$lib/welder-qualification';
+import { stampKey } from '$lib/domain';
 import type { RecordWeld } from '$lib/schemas/inspection';
 import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
-
-/** A rule the caller's role does not allow within a route it may use (the override). */
-export class WeldOverrideError extends Error {
-	readonly status = 403;
-	readonly field = 'override';
-}
 
 // Processes -------------------------------------------------------------------------------
 
@@ -90,110 +91,6 @@ function processText(processes: PassProcesses, passes: readonly WeldPass[]): str
 	const used = passes.map((pass) => processes[pass]);
 	const distinct = used.filter((process, k) => used.indexOf(process) === k);
 	return distinct.join('/');
-}
-
-// Continuity --------------------------------------------------------------------------------
-
-/**
- * Six months without the process and the qualification lapses:
- * ASME BPVC Section IX QW-322.1(a) ("6 months or more" without welding in that process) and
- * AWS D1.1:2020 6.2.3.1 ("more than six months"; clause number from memory, 4.1.3.1 in 2006).
- * Both run per process, from the last day the welder used it (or the test itself).
- */
-export const CONTINUITY_MONTHS = 6;
-
-function dateParts(date: string): [number, number, number] {
-	const [y, m, d] = date.split('-').map(Number);
-	return [y, m, d];
-}
-
-function isoOf(y: number, monthIndex: number, d: number): string {
-	return new Date(Date.UTC(y, monthIndex, d)).toISOString().slice(0, 10);
-}
-
-/**
- * The same day of the month, `months` calendar months on; a day the month does not have
- * falls back to its last day (2026-08-31 + 6 → 2027-02-28).
- */
-export function addCalendarMonths(date: string, months: number): string {
-	const [y, m, d] = dateParts(date);
-	const monthIndex = m - 1 + months;
-	const lastDay = new Date(Date.UTC(y, monthIndex + 1, 0)).getUTCDate();
-	return isoOf(y, monthIndex, Math.min(d, lastDay));
-}
-
-export function addDays(date: string, days: number): string {
-	const [y, m, d] = dateParts(date);
-	return isoOf(y, m - 1, d + days);
-}
-
-/**
- * The last day a welder may weld with a process, counted in calendar months from the last use:
- * last used 2026-03-15 → valid through 2026-09-15, lapsed from 2026-09-16. Exactly six months
- * on is still in: D1.1 says "more than six months". QW-322.1's "6 months or more" could be
- * read one day stricter; a contract that wants that reading sets the later use date.
- */
-export function continuityValidThrough(lastUsedOn: string): string {
-	return addCalendarMonths(lastUsedOn, CONTINUITY_MONTHS);
-}
-
-export interface QualificationRecord {
-	process: string;
-	qualifiedOn: string;
-	expiresOn: string | null;
-	lastUsedOn: string | null;
-}
-
-export type QualificationCheck =
-	| { ok: true }
-	| { ok: false; problem: 'not_qualified'; overridable: false }
-	| { ok: false; problem: 'not_yet'; overridable: false; qualifiedOn: string }
-	| { ok: false; problem: 'expired'; overridable: true; expiresOn: string }
-	| {
-			ok: false;
-			problem: 'lapsed';
-			overridable: true;
-			lastUsedOn: string;
-			validThrough: string;
-			lapsedOn: string;
-	  };
-
-/**
- * May the welder weld this process on this date? `expiresOn` is the last day of validity
- * (the date written on the record); continuity runs from the later of the test and the last use.
- */
-export function checkQualification(
-	qualification: QualificationRecord | undefined,
-	weldedOn: string
-): QualificationCheck {
-	if (!qualification) return { ok: false, problem: 'not_qualified', overridable: false };
-	if (weldedOn < qualification.qualifiedOn) {
-		return {
-			ok: false,
-			problem: 'not_yet',
-			overridable: false,
-			qualifiedOn: qualification.qualifiedOn
-		};
-	}
-	if (qualification.expiresOn && weldedOn > qualification.expiresOn) {
-		return { ok: false, problem: 'expired', overridable: true, expiresOn: qualification.expiresOn };
-	}
-	const lastUsedOn =
-		qualification.lastUsedOn && qualification.lastUsedOn > qualification.qualifiedOn
-			? qualification.lastUsedOn
-			: qualification.qualifiedOn;
-	const validThrough = continuityValidThrough(lastUsedOn);
-	if (weldedOn > validThrough) {
-		return {
-			ok: false,
-			problem: 'lapsed',
-			overridable: true,
-			lastUsedOn,
-			validThrough,
-			lapsedOn: addDays(validThrough, 1)
-		};
-	}
-	return { ok: true };
 }
 
 // Reading -----------------------------------------------------------------------------------
@@ -277,7 +174,7 @@ function cycleOf(tx: Tx, joint: Joint): { cycle: number; previousOn: string | nu
 			.get();
 		return { cycle: derived.repairCycle + 1, previousOn: previous?.weldedOn ?? null };
 	}
-	throw new JointError(
+	throw new DomainError(
 		`Joint ${displayWeldNumber(joint.number, derived.repairCycle)} ${NOT_READY[derived.state]}`,
 		409
 	);
@@ -331,14 +228,11 @@ function findWelders(tx: Tx, projectId: number, stamps: string[]): Map<string, S
 		.where(
 			and(
 				eq(schema.welders.projectId, projectId),
-				inArray(
-					sql`upper(${schema.welders.stamp})`,
-					stamps.map((s) => s.toUpperCase())
-				)
+				inArray(schema.welders.stampKey, stamps.map(stampKey))
 			)
 		)
 		.all();
-	return new Map(rows.map((r) => [r.stamp.toUpperCase(), r]));
+	return new Map(rows.map((r) => [stampKey(r.stamp), r]));
 }
 
 function qualificationsOf(tx: Tx, welderIds: number[]) {
@@ -351,27 +245,19 @@ function qualificationsOf(tx: Tx, welderIds: number[]) {
 
 /**
  * Record a weld on a joint, with the welder of each pass, in one transaction with the
- * welders' continuity, the joint's state and its version. Expected failures are JointErrors
- * (400 bad input, 404, 409 out of order or a welder refused) or a WeldOverrideError (403).
+ * welders' continuity, the joint's state and its version. Expected failures are DomainErrors
+ * (400 bad input, 404, 409 out of order or a welder refused) or 403 for an override the caller may not make.
  */
 export function record(
 	jointId: number,
 	input: RecordWeld,
-	user: { id: string; isAdmin: boolean },
+	user: Principal & { id: string },
 	options: { today?: string } = {}
 ) {
-	return db.transaction((tx) => {
-		const joint = row(jointId, tx);
-		if (!joint) throw new JointError('There is no such joint.', 404);
-		if (input.version !== undefined && input.version !== joint.version) {
-			throw new JointError(
-				`Someone else changed joint ${joint.number} a moment ago (version ${joint.version}, yours ${input.version}). Reload it and check before recording.`,
-				409,
-				'version'
-			);
-		}
+	return events.afterCommit((tx, tell) => {
+		const joint = lockedJoint(tx, jointId, input.version);
 		if (joint.voidedAt) {
-			throw new JointError(
+			throw new DomainError(
 				`Joint ${joint.number} is void (${joint.voidReason ?? 'voided'}); nothing more is recorded on it.`,
 				409
 			);
@@ -382,14 +268,14 @@ export function record(
 		// A day's grace: a site ahead of UTC records today's date before UTC reaches it.
 		const latest = addDays(options.today ?? todayUtc(), 1);
 		if (input.weldedOn > latest) {
-			throw new JointError(
+			throw new DomainError(
 				`The weld date ${input.weldedOn} is in the future; give the day it was welded.`,
 				400,
 				'weldedOn'
 			);
 		}
 		if (previousOn && input.weldedOn < previousOn) {
-			throw new JointError(
+			throw new DomainError(
 				`Repair ${label} cannot be welded before the weld it repairs (${previousOn}).`,
 				400,
 				'weldedOn'
@@ -399,7 +285,7 @@ export function record(
 		const wps = input.wps || joint.wps;
 		const processes = input.process ? passProcesses(input.process) : processFromWps(wps);
 		if (!processes) {
-			throw new JointError(
+			throw new DomainError(
 				input.process
 					? `Cannot read the process "${input.process}": give its letters (GTAW, SMAW, FCAW …) or ISO 4063 number, one for all passes or by pass such as GTAW/SMAW (root, then fill and cap).`
 					: `The WPS ${wps ? `"${wps}" names` : 'is blank and names'} no welding process: give the process, such as "GTAW" or "GTAW/SMAW" (root, then fill and cap).`,
@@ -412,16 +298,16 @@ export function record(
 		const stamps = passes.map((pass) => input.welders[pass]!);
 		const found = findWelders(tx, joint.projectId, stamps);
 		const assigned = passes.map((pass) => {
-			const welder = found.get(input.welders[pass]!.toUpperCase());
+			const welder = found.get(stampKey(input.welders[pass]!));
 			if (!welder) {
-				throw new JointError(
+				throw new DomainError(
 					`No welder with stamp ${input.welders[pass]} is registered on this project; check the stamp, or have the welder added to the register first.`,
 					400,
 					`welders.${pass}`
 				);
 			}
 			if (welder.status !== 'active') {
-				throw new JointError(
+				throw new DomainError(
 					`Welder ${welder.stamp} (${welder.name}) is inactive on this project and cannot be stamped on a weld.`,
 					409,
 					`welders.${pass}`
@@ -451,19 +337,22 @@ export function record(
 		}
 		const problems = uses.filter((u) => !u.check.ok);
 		const hard = problems.find((p) => !p.check.ok && !p.check.overridable);
-		if (hard) throw new JointError(problemText(hard), 409, `welders.${hard.pass}`);
+		if (hard) throw new DomainError(problemText(hard), 409, `welders.${hard.pass}`);
+		const mayOverride = can(user, 'weld.override', joint.projectId);
 		if (problems.length > 0) {
 			const told = problems.map(problemText).join(' ');
 			if (!input.override) {
-				throw new JointError(
-					`${told} Renew the qualification, or ${user.isAdmin ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
+				throw new DomainError(
+					`${told} Renew the qualification, or ${mayOverride ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
 					409,
 					`welders.${problems[0].pass}`
 				);
 			}
-			if (!user.isAdmin) {
-				throw new WeldOverrideError(
-					`Only an administrator may override a welder qualification check. ${told}`
+			if (!mayOverride) {
+				throw new DomainError(
+					`Only an administrator may override a welder qualification check. ${told}`,
+					403,
+					'override'
 				);
 			}
 		}
@@ -543,7 +432,7 @@ export function record(
 			},
 			tx
 		);
-		events.publish(joint.projectId, {
+		tell(joint.projectId, {
 			type: 'joint',
 			action: 'recorded',
 			jointId,

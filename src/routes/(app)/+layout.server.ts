@@ -4,12 +4,13 @@ import type { LayoutServerLoad } from './$types';
 export const load = (async ({ locals }) => {
 	// The hooks have already sent anyone signed out to the sign-in page.
 	const user = locals.user!;
-	const visible = projects.list(user.isAdmin ? undefined : Object.keys(user.roles).map(Number));
+	const visible = projects.visibleTo(user);
 	return {
 		user: {
 			id: user.id,
 			name: user.name,
 			email: user.email,
+			// eslint-disable-next-line no-restricted-syntax -- the principal goes to the browser, where can() runs too
 			isAdmin: user.isAdmin,
 			roles: user.roles
 		},

@@ -29,3 +29,26 @@ test('repeated failed sign-ins for one address are slowed, then refused with 429
 	expect((await refused.response.json()).error).toMatch(/Too many failed sign-ins/);
 	await client.dispose();
 });
+
+test('the lock-out counts the address Auth.js signs in: a second email field or a JSON body is refused too', async () => {
+	// Runs after the test above, which locked no-such-person@tacksheet.test.
+	const client = await newRequest.newContext({ baseURL: BASE_URL });
+	const repeated = await client.post('/auth/callback/credentials', {
+		data: new URLSearchParams([
+			['email', 'someone-else@tacksheet.test'],
+			['email', 'no-such-person@tacksheet.test'],
+			['password', 'tacksheet-demo'],
+			['callbackUrl', '/']
+		]).toString(),
+		headers: { origin: BASE_URL, 'content-type': 'application/x-www-form-urlencoded' },
+		maxRedirects: 0
+	});
+	expect(repeated.status()).toBe(429);
+	const asJson = await client.post('/auth/callback/credentials', {
+		data: { email: 'No-Such-Person@tacksheet.test ', password: 'tacksheet-demo', callbackUrl: '/' },
+		headers: { origin: BASE_URL },
+		maxRedirects: 0
+	});
+	expect(asJson.status()).toBe(429);
+	await client.dispose();
+});

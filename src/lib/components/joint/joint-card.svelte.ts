@@ -2,7 +2,7 @@
  * The joint card's state: the joint as last loaded, the draft of its fields, the message on
  * top, and the writes that change it. A 409 reloads the joint, so nothing stale stays shown.
  */
-import { callApi, isApiFailure } from '$lib/components/pins/pin-store.svelte';
+import { callApi, failureText, isApiFailure } from '$lib/api-client';
 import type { JointDraft } from './JointFieldsForm.svelte';
 import type { JointDetail } from './types';
 
@@ -23,9 +23,6 @@ function toDraft(j: JointDetail): JointDraft {
 		ndeRequired: j.ndeRequired
 	};
 }
-
-const failureText = (failure: unknown, fallback: string) =>
-	isApiFailure(failure) ? failure.error : fallback;
 
 export class JointCardState {
 	joint = $state<JointDetail | null>(null);

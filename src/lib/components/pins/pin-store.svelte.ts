@@ -5,6 +5,7 @@
  */
 import type { JointState } from '$lib/joint-state';
 import { ProjectFeed } from '$lib/components/project-feed.svelte';
+import { callApi, failureText } from '$lib/api-client';
 
 export interface PinItem {
 	pinId: number;
@@ -22,37 +23,7 @@ export interface PinItem {
 	version: number;
 }
 
-export interface ApiFailure {
-	status: number;
-	error: string;
-	field?: string;
-}
-
 const POLL_MS = 15_000;
-
-async function call<T>(url: string, init: RequestInit = {}): Promise<T> {
-	const response = await fetch(url, {
-		...init,
-		headers: {
-			'content-type': 'application/json',
-			accept: 'application/json',
-			...(init.headers ?? {})
-		}
-	});
-	const body = await response.json().catch(() => ({}));
-	if (!response.ok) {
-		throw {
-			status: response.status,
-			error: body.error ?? `The server answered ${response.status}.`,
-			field: body.field
-		} satisfies ApiFailure;
-	}
-	return body as T;
-}
-
-export function isApiFailure(value: unknown): value is ApiFailure {
-	return typeof value === 'object' && value !== null && 'status' in value && 'error' in value;
-}
 
 export class PinStore {
 	items = $state<PinItem[]>([]);
@@ -71,16 +42,14 @@ export class PinStore {
 	}
 
 	async refresh(): Promise<void> {
-		this.refreshing ??= call<{ items: PinItem[] }>(`/api/revisions/${this.revisionId}/pins`)
+		this.refreshing ??= callApi<{ items: PinItem[] }>(`/api/revisions/${this.revisionId}/pins`)
 			.then(({ items }) => {
 				this.items = items;
 				this.loaded = true;
 				this.error = '';
 			})
 			.catch((failure: unknown) => {
-				this.error = isApiFailure(failure)
-					? failure.error
-					: 'The pins could not be loaded. Check the connection.';
+				this.error = failureText(failure, 'The pins could not be loaded. Check the connection.');
 			})
 			.finally(() => (this.refreshing = null));
 		return this.refreshing;
@@ -88,9 +57,9 @@ export class PinStore {
 
 	/** Follow the project's changes; returns the function that stops following. */
 	follow(): () => void {
-		this.refresh();
+		void this.refresh();
 		// Written, never read, here: the effect that calls follow() must not depend on it.
-		const feed = new ProjectFeed(this.projectId, () => this.refresh(), POLL_MS);
+		const feed = new ProjectFeed(this.projectId, () => void this.refresh(), POLL_MS);
 		this.#feed = feed;
 		return feed.start();
 	}
@@ -106,7 +75,7 @@ export class PinStore {
 		insertAfter?: string;
 		joint: Record<string, string>;
 	}) {
-		const created = await call<{ joint: { id: number; number: string }; pin: { id: number } }>(
+		const created = await callApi<{ joint: { id: number; number: string }; pin: { id: number } }>(
 			`/api/revisions/${this.revisionId}/pins`,
 			{
 				method: 'POST',
@@ -122,7 +91,7 @@ export class PinStore {
 		const previous = { x: pin.x, y: pin.y };
 		Object.assign(pin, { x, y });
 		try {
-			const moved = await call<{ version: number }>(`/api/pins/${pin.pinId}`, {
+			const moved = await callApi<{ version: number }>(`/api/pins/${pin.pinId}`, {
 				method: 'PATCH',
 				body: JSON.stringify({ x, y, version: pin.version })
 			});
@@ -137,7 +106,7 @@ export class PinStore {
 	}
 
 	async confirm(pin: PinItem) {
-		const done = await call<{ version: number }>(`/api/pins/${pin.pinId}/confirm`, {
+		const done = await callApi<{ version: number }>(`/api/pins/${pin.pinId}/confirm`, {
 			method: 'POST',
 			body: JSON.stringify({ version: pin.version })
 		}).catch(async (failure: unknown) => {
@@ -148,5 +117,3 @@ export class PinStore {
 		pin.needsReview = false;
 	}
 }
-
-export { call as callApi };

@@ -5,6 +5,7 @@
  */
 import {
 	checkIds,
+	quantitySpec,
 	readingDefinitions,
 	readingIds,
 	type CheckId,
@@ -283,8 +284,8 @@ export function parseTyped(
 ): ParsedQuantity | undefined {
 	if (text.trim() === '') return undefined;
 	return readingDefinitions[id].kind === 'angle'
-		? parseAngle(text, { reading: id })
-		: parseLength(text, { units, reading: id });
+		? parseAngle(text, { reading: quantitySpec(id) })
+		: parseLength(text, { units, reading: quantitySpec(id) });
 }
 
 /** The value in both systems, the project's first: `= 9.5 mm (3/8")` or `= 3/8 in (9.5 mm)`. */

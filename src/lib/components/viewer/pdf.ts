@@ -39,7 +39,12 @@ export async function openSheetFile(
 		cMapPacked: true,
 		standardFontDataUrl: '/pdfjs/standard_fonts/',
 		wasmUrl: '/pdfjs/wasm/',
-		iccUrl: '/pdfjs/iccs/'
+		iccUrl: '/pdfjs/iccs/',
+		// The file route answers Range requests: a part the stream has not brought yet (the
+		// sheet's objects at the end of a large file) is fetched on its own, 1 MB at a time.
+		rangeChunkSize: 1 << 20,
+		// The Content-Security-Policy allows no eval; saying so spares pdf.js its probe.
+		isEvalSupported: false
 	});
 	if (onProgress) {
 		task.onProgress = ({ loaded, total }: { loaded: number; total: number }) =>

@@ -16,13 +16,21 @@ import {
 	type AnySQLiteColumn
 } from 'drizzle-orm/sqlite-core';
 import type { AdapterAccountType } from '@auth/core/adapters';
+import { JOINT_STATES, type JointState } from '../../joint-state';
 import {
-	JOINT_STATES,
-	type JointState,
-	type NdeMethod,
+	JOINT_KINDS,
+	JOINT_LOCATIONS,
+	UNIT_SYSTEMS,
+	WELD_PASSES,
+	type Decision,
 	type InspectionStage,
-	type Decision
-} from '../../joint-state';
+	type JointKind,
+	type JointLocation,
+	type NdeMethod,
+	type UnitSystem,
+	type Verdict,
+	type WeldPass
+} from '../../domain';
 import type { ProjectRole } from '../../permissions';
 import type { CheckId, Finding } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
@@ -30,16 +38,18 @@ import type { LotGrouping, LotRule } from '../../nde/extent';
 import type { LotStage, SelectionReason } from '../../nde/sampling';
 
 export type { ProjectRole };
-export const UNIT_SYSTEMS = ['imperial', 'metric'] as const;
-export type UnitSystem = (typeof UNIT_SYSTEMS)[number];
+export {
+	UNIT_SYSTEMS,
+	JOINT_KINDS,
+	JOINT_LOCATIONS,
+	WELD_PASSES,
+	type UnitSystem,
+	type JointKind,
+	type JointLocation,
+	type WeldPass
+};
 export const DRAWING_KINDS = ['isometric', 'shop', 'structural'] as const;
 export type DrawingKind = (typeof DRAWING_KINDS)[number];
-export const JOINT_KINDS = ['butt', 'fillet', 'socket', 'branch'] as const;
-export type JointKind = (typeof JOINT_KINDS)[number];
-export const JOINT_LOCATIONS = ['shop', 'field'] as const;
-export type JointLocation = (typeof JOINT_LOCATIONS)[number];
-export const WELD_PASSES = ['root', 'fill', 'cap'] as const;
-export type WeldPass = (typeof WELD_PASSES)[number];
 
 const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
 const createdAt = () => integer('created_at').notNull().default(now);
@@ -86,6 +96,11 @@ export const users = sqliteTable('users', {
 	passwordHash: text('password_hash'),
 	isAdmin: integer('is_admin', { mode: 'boolean' }).notNull().default(false),
 	disabledAt: integer('disabled_at'),
+	/**
+	 * Raised by sign-out, a password change or reset and disabling the account: a session
+	 * signed with an older number is over, whatever its cookie still says.
+	 */
+	sessionGeneration: integer('session_generation').notNull().default(0),
 	createdAt: createdAt()
 });
 
@@ -421,12 +436,17 @@ export const welders = sqliteTable(
 			.notNull()
 			.references(() => projects.id, { onDelete: 'cascade' }),
 		stamp: text('stamp').notNull(),
+		/** The stamp as compared (stampKey of $lib/domain): one welder per stamp, in any case. */
+		stampKey: text('stamp_key').notNull().default(''),
 		name: text('name').notNull(),
 		employer: text('employer').notNull().default(''),
 		status: text('status').$type<'active' | 'inactive'>().notNull().default('active'),
 		createdAt: createdAt()
 	},
-	(t) => [uniqueIndex('welders_project_stamp').on(t.projectId, t.stamp)]
+	(t) => [
+		uniqueIndex('welders_project_stamp').on(t.projectId, t.stamp),
+		uniqueIndex('welders_project_stamp_key').on(t.projectId, t.stampKey)
+	]
 );
 
 /** A welder's qualification for one process; continuity runs from `lastUsedOn`. */
@@ -496,7 +516,7 @@ export const inspections = sqliteTable(
 		method: text('method').$type<NdeMethod>(),
 		repairCycle: integer('repair_cycle').notNull().default(0),
 		readings: text('readings', { mode: 'json' }).$type<StoredReading[]>().notNull().default([]),
-		verdict: text('verdict').$type<'within' | 'outside' | 'judge'>(),
+		verdict: text('verdict').$type<Verdict>(),
 		findings: text('findings', { mode: 'json' }).$type<StoredFinding[]>().notNull().default([]),
 		criteriaSetId: text('criteria_set_id'),
 		criteriaSetVersion: integer('criteria_set_version'),

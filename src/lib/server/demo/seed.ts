@@ -11,6 +11,7 @@ import { config } from '../config';
 import { hashPassword } from '../passwords';
 import * as storage from '../storage';
 import * as audit from '../audit';
+import * as users from '../users';
 import { refreshState } from '../joints';
 import { renderDemoSheet, type DemoWeld } from './sheets';
 import {
@@ -30,6 +31,7 @@ import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength } from '$lib/units';
 import type { JointState } from '$lib/joint-state';
 import type { UnitSystem } from '../db/schema';
+import { stampKey } from '$lib/domain';
 
 const DAY = 86_400_000;
 /** The demo job's calendar is fixed, so the records are the same whatever today is. */
@@ -57,39 +59,11 @@ export interface SeedResult {
 export async function seedIfEmpty(db: Db = defaultDb): Promise<SeedResult> {
 	const existing = db.select({ n: count() }).from(schema.users).get()?.n ?? 0;
 	if (existing > 0) return { seeded: false, users: existing, projects: 0, drawings: 0, joints: 0 };
-	if (!config.demo) return seedAdminOnly(db);
+	if (!config.demo) {
+		const created = await users.setUpFirstAdmin(db);
+		return { seeded: created, users: created ? 1 : 0, projects: 0, drawings: 0, joints: 0 };
+	}
 	return seedDemo(db);
-}
-
-async function seedAdminOnly(db: Db): Promise<SeedResult> {
-	if (!config.adminEmail || !config.adminPassword) {
-		throw new Error(
-			'TACKSHEET_DEMO=0 starts with an empty database: set ADMIN_EMAIL and ADMIN_PASSWORD for the first administrator.'
-		);
-	}
-	if (config.adminPassword.length < 12) {
-		throw new Error('ADMIN_PASSWORD must be at least 12 characters long.');
-	}
-	const user = db
-		.insert(schema.users)
-		.values({
-			email: config.adminEmail.toLowerCase(),
-			name: 'Administrator',
-			isAdmin: true,
-			passwordHash: await hashPassword(config.adminPassword)
-		})
-		.returning({ id: schema.users.id })
-		.get();
-	audit.record(
-		{
-			action: 'create',
-			entity: 'user',
-			entityId: user.id,
-			after: { email: config.adminEmail, isAdmin: true }
-		},
-		db
-	);
-	return { seeded: true, users: 1, projects: 0, drawings: 0, joints: 0 };
 }
 
 async function seedDemo(db: Db): Promise<SeedResult> {
@@ -139,6 +113,7 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 						.values({
 							email: user.email,
 							name: user.name,
+							// eslint-disable-next-line no-restricted-syntax -- the seed writes the scenario's accounts as given
 							isAdmin: user.isAdmin ?? false,
 							passwordHash: hashes[i],
 							emailVerified: new Date(JOB_START),
@@ -225,7 +200,13 @@ function seedWelders(tx: Tx, projectId: number, project: DemoProject): Map<strin
 	for (const welder of project.welders) {
 		const id = tx
 			.insert(schema.welders)
-			.values({ projectId, stamp: welder.stamp, name: welder.name, employer: welder.employer })
+			.values({
+				projectId,
+				stamp: welder.stamp,
+				stampKey: stampKey(welder.stamp),
+				name: welder.name,
+				employer: welder.employer
+			})
 			.returning({ id: schema.welders.id })
 			.get().id;
 		for (const q of welder.processes) {
@@ -544,7 +525,7 @@ function recordHistory(tx: Tx, h: HistorySeed): { end: number } {
 		repairCycle: number,
 		outcome: DemoOutcome
 	) => {
-		let values: Partial<typeof schema.inspections.$inferInsert> = {};
+		let values: Partial<typeof schema.inspections.$inferInsert>;
 		if (stage === 'nde') {
 			values = {
 				method: 'RT',

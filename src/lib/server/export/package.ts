@@ -21,7 +21,7 @@ import archiver from 'archiver';
 import { eq } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as storage from '../storage';
-import * as joints from '../joints';
+import * as pins from '../pins';
 import * as nde from '../nde';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
 import { isComplete } from '$lib/joint-state';
@@ -119,8 +119,8 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		},
 		drawings,
 		pinsOf: (revisionId) =>
-			joints
-				.pinsOf(revisionId)
+			pins
+				.ofRevision(revisionId)
 				.filter((pin) => !job.request.acceptedOnly || isComplete(pin.state))
 				.map((pin) => ({
 					pageIndex: pin.pageIndex,

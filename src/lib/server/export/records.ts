@@ -5,9 +5,10 @@
 import { PassThrough, type Writable } from 'node:stream';
 import { and, asc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from '../db';
+import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
 import { weldLogFilter } from '$lib/schemas/weld-log';
-import { COMPLETE_STATES, displayWeldNumber, isComplete } from '$lib/joint-state';
+import { COMPLETE_STATES, correctionsOf, displayWeldNumber, isComplete } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
 import { withEntryDates } from './zip-dates';
@@ -84,15 +85,9 @@ const HEADERS = [
 	'Technician',
 	'Criteria set',
 	'Record id',
-	'Corrects record'
+	'Corrects record',
+	'Stands'
 ];
-
-/** RFC 4180 quoting, and a leading quote on text a spreadsheet would run as a formula. */
-function field(value: string | number | null | undefined): string {
-	let text = value == null ? '' : String(value);
-	if (/^[=+@\t\r]/.test(text)) text = `'${text}`;
-	return /[",\r\n]/.test(text) ? `"${text.replaceAll('"', '""')}"` : text;
-}
 
 function shownValue(value: number | boolean | null, unit: string | null): string {
 	if (value === null) return '';
@@ -110,7 +105,7 @@ const CHUNK = 2000;
 export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
 	const i = schema.inspections;
 	const j = schema.joints;
-	const lines: string[] = [HEADERS.map(field).join(',')];
+	const lines: string[] = [csvLine(HEADERS)];
 	const ids = drawings.map((d) => d.id);
 	const numberOf = new Map(drawings.map((d) => [d.id, d.number]));
 	for (let start = 0; start < ids.length; start += CHUNK) {
@@ -157,9 +152,12 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 				a.inspectedAt - b.inspectedAt ||
 				a.id - b.id
 		);
+		// A drawing's joints sit in one chunk, so every correction is beside the row it names.
+		const correctedBy = correctionsOf(rows);
 		for (const row of rows) {
+			const correction = correctedBy.get(row.id);
 			lines.push(
-				[
+				csvLine([
 					numberOf.get(row.drawingId) ?? '',
 					displayWeldNumber(row.number, row.repairCycle),
 					row.stage,
@@ -182,12 +180,11 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						? `${row.criteriaSetId}${row.criteriaSetVersion != null ? ` v${row.criteriaSetVersion}` : ''}`
 						: '',
 					row.id,
-					row.supersedesId ?? ''
-				]
-					.map(field)
-					.join(',')
+					row.supersedesId ?? '',
+					correction ? `no: corrected by ${correction.id}` : 'yes'
+				])
 			);
 		}
 	}
-	return Buffer.from('\uFEFF' + lines.join('\r\n') + '\r\n', 'utf8');
+	return Buffer.from('\uFEFF' + lines.join(''), 'utf8');
 }

@@ -7,7 +7,8 @@
 import { and, asc, eq, gt, isNull, ne } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as audit from '../audit';
-import { JointError, refreshState } from '../joints';
+import { refreshState } from '../joints';
+import { DomainError } from '../errors';
 import type { NdeSettings } from '$lib/schemas/nde';
 import { Forming, formFromWelds, projectRule, projectsBehind, resetMark } from './forming';
 import { firstResults, lotRow, type Tx } from './rows';
@@ -202,8 +203,8 @@ export function closeIn(
 	now: number
 ) {
 	const lot = lotRow(tx, lotId);
-	if (!lot || lot.projectId !== projectId) throw new JointError('There is no such lot.', 404);
-	if (lot.status === 'closed') throw new JointError(`${lot.label} is already closed.`, 409);
+	if (!lot || lot.projectId !== projectId) throw new DomainError('There is no such lot.', 404);
+	if (lot.status === 'closed') throw new DomainError(`${lot.label} is already closed.`, 409);
 	tx.update(l)
 		.set({ status: 'closed', closedAt: now, closedBy: userId, closeNote: note || null })
 		.where(eq(l.id, lotId))
@@ -229,8 +230,8 @@ export function closeIn(
 export function reopen(projectId: number, lotId: number, userId: string) {
 	return db.transaction((tx) => {
 		const lot = lotRow(tx, lotId);
-		if (!lot || lot.projectId !== projectId) throw new JointError('There is no such lot.', 404);
-		if (lot.status === 'open') throw new JointError(`${lot.label} is open already.`, 409);
+		if (!lot || lot.projectId !== projectId) throw new DomainError('There is no such lot.', 404);
+		if (lot.status === 'open') throw new DomainError(`${lot.label} is open already.`, 409);
 		const later = tx
 			.select({ label: l.label })
 			.from(l)
@@ -247,7 +248,7 @@ export function reopen(projectId: number, lotId: number, userId: string) {
 			)
 			.get();
 		if (later)
-			throw new JointError(
+			throw new DomainError(
 				`${lot.label} cannot be reopened: later welds of its grouping are in ${later.label}.`,
 				409
 			);

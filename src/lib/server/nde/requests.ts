@@ -9,7 +9,7 @@ import { and, asc, desc, eq, inArray, isNull } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as audit from '../audit';
 import * as mail from '../mail';
-import { JointError } from '../joints';
+import { DomainError } from '../errors';
 import { REASON_WORDS } from '$lib/nde/sampling';
 import { jointHref, jointsInfo } from './joints-info';
 import { projectRule } from './forming';
@@ -229,14 +229,14 @@ export async function send(
 ) {
 	const rule = projectRule(db, projectId);
 	if (!rule.contractorEmail)
-		throw new JointError(
+		throw new DomainError(
 			"The project has no NDE contractor's address yet: an administrator sets it under Settings → NDE lots and extent.",
 			409,
 			'contractorEmail'
 		);
 	const rows = due(projectId, input.lotIds);
 	if (rows.length === 0)
-		throw new JointError(
+		throw new DomainError(
 			'Nothing to request: no selected weld is waiting for NDE that has not been asked for already.',
 			409
 		);

@@ -9,7 +9,8 @@ import { and, asc, eq, inArray, isNull, ne } from 'drizzle-orm';
 import { schema } from '../db';
 import * as audit from '../audit';
 import * as events from '../events';
-import { JointError, refreshState } from '../joints';
+import { refreshState } from '../joints';
+import { DomainError } from '../errors';
 import { effectiveInspections } from '$lib/joint-state';
 import { parseLength, type UnitSystem } from '$lib/units';
 import { mixSeed } from '$lib/random';
@@ -64,7 +65,7 @@ function storeIndications(
 			if (!typed) return null;
 			const parsed = parseLength(typed, { units });
 			if (!parsed.ok)
-				throw new JointError(
+				throw new DomainError(
 					`Indication ${n + 1}: cannot read the ${field} "${typed}" (e.g. 3/8, 10 mm).`,
 					400,
 					`indications.${n}.${field}`
@@ -138,7 +139,7 @@ function responsible(tx: Tx, joint: Joint, cycle: number, named: string[] | unde
 	return named.map((stamp) => {
 		const row = rows.find((r) => r.stamp.toUpperCase() === stamp.trim().toUpperCase());
 		if (!row)
-			throw new JointError(
+			throw new DomainError(
 				`Welder ${stamp} did not weld ${joint.number}; its welders are ${[...new Set(rows.map((r) => r.stamp))].join(', ') || 'not recorded'}.`,
 				400,
 				'welders'

@@ -8,7 +8,8 @@ import { and, eq, isNull } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as audit from '../audit';
 import * as events from '../events';
-import { JointError, refreshState } from '../joints';
+import { refreshState } from '../joints';
+import { DomainError } from '../errors';
 import { isSeed, mixSeed, newSeed } from '$lib/random';
 import {
 	callsForReject,
@@ -32,7 +33,8 @@ export interface Swap {
 /** The lot, checked to belong to the project: 404 otherwise. */
 export function lotOf(reader: Reader, projectId: number, lotId: number): LotData {
 	const data = lotData(reader, lotId);
-	if (!data || data.lot.projectId !== projectId) throw new JointError('There is no such lot.', 404);
+	if (!data || data.lot.projectId !== projectId)
+		throw new DomainError('There is no such lot.', 404);
 	return data;
 }
 
@@ -53,7 +55,7 @@ function applySwaps(data: LotData, picks: number[], swaps: readonly Swap[]) {
 	for (const swap of swaps) {
 		const reason = swap.reason.trim();
 		if (reason.length < 3)
-			throw new JointError(
+			throw new DomainError(
 				`Say why weld ${swap.out} is swapped out (e.g. "no access: scaffold struck"); the reason stays in the record.`,
 				400,
 				'reason'
@@ -74,7 +76,7 @@ function applySwaps(data: LotData, picks: number[], swaps: readonly Swap[]) {
 			}))
 		];
 		if (!current.includes(swap.out))
-			throw new JointError('Only a weld of this proposal can be swapped out of it.', 409, 'out');
+			throw new DomainError('Only a weld of this proposal can be swapped out of it.', 409, 'out');
 		const problem = swapProblem({
 			members: data.members,
 			selections: rows,
@@ -82,7 +84,7 @@ function applySwaps(data: LotData, picks: number[], swaps: readonly Swap[]) {
 			inJointId: swap.in,
 			everyWelder: data.lot.everyWelder
 		});
-		if (problem) throw new JointError(problem, 409, 'in');
+		if (problem) throw new DomainError(problem, 409, 'in');
 		current[current.indexOf(swap.out)] = swap.in;
 		applied.push({ ...swap, reason });
 	}
@@ -98,7 +100,7 @@ function named(reader: Reader, ids: readonly number[]) {
 /** What a selection with this seed would take now; nothing is written. */
 export function propose(projectId: number, lotId: number, seed?: number) {
 	if (seed !== undefined && !isSeed(seed))
-		throw new JointError('A seed is a whole number from 0 to 4294967295.', 400, 'seed');
+		throw new DomainError('A seed is a whole number from 0 to 4294967295.', 400, 'seed');
 	const data = lotOf(db, projectId, lotId);
 	const drawn = proposal(data, seed ?? newSeed());
 	const ids = drawn.picks.map((p) => p.jointId);
@@ -134,7 +136,7 @@ export function commit(
 	userId: string
 ) {
 	if (input.seed !== undefined && !isSeed(input.seed))
-		throw new JointError('A seed is a whole number from 0 to 4294967295.', 400, 'seed');
+		throw new DomainError('A seed is a whole number from 0 to 4294967295.', 400, 'seed');
 	const seed = input.seed ?? newSeed();
 	const result = db.transaction((tx) =>
 		commitIn(tx, projectId, lotId, { seed, swaps: input.swaps ?? [] }, userId, Date.now())
@@ -162,7 +164,7 @@ export function commitIn(
 				: drawn.short > 0
 					? 'no weld is ready for NDE (welded and visually accepted)'
 					: `the sample is met: ${drawn.sampled} of ${drawn.joints} welds selected (${drawn.required} asked), every welder represented`;
-		throw new JointError(`Nothing to select in ${data.lot.label}: ${why}.`, 409);
+		throw new DomainError(`Nothing to select in ${data.lot.label}: ${why}.`, 409);
 	}
 	const { picks, applied } = applySwaps(
 		data,
@@ -233,7 +235,7 @@ export function commitIn(
 export function swap(projectId: number, lotId: number, input: Swap, userId: string) {
 	const reason = input.reason.trim();
 	if (reason.length < 3)
-		throw new JointError(
+		throw new DomainError(
 			'Say why the weld is swapped (e.g. "no access: scaffold struck"); the reason stays in the record.',
 			400,
 			'reason'
@@ -241,7 +243,7 @@ export function swap(projectId: number, lotId: number, input: Swap, userId: stri
 	const done = db.transaction((tx) => {
 		const data = lotOf(tx, projectId, lotId);
 		const out = data.selections.find((x) => x.jointId === input.out);
-		if (!out) throw new JointError('That weld is not selected in this lot.', 409, 'out');
+		if (!out) throw new DomainError('That weld is not selected in this lot.', 409, 'out');
 		let notAfter: number | undefined;
 		if (out.reason === 'tracer' && out.tracerOfId != null) {
 			const call = tx
@@ -259,7 +261,7 @@ export function swap(projectId: number, lotId: number, input: Swap, userId: stri
 			everyWelder: data.lot.everyWelder,
 			notAfter
 		});
-		if (problem) throw new JointError(problem, 409, 'in');
+		if (problem) throw new DomainError(problem, 409, 'in');
 		const now = Date.now();
 		tx.update(s)
 			.set({
@@ -329,7 +331,7 @@ export function pickShortTracers(projectId: number, lotId: number, userId: strin
 			.where(and(eq(c.lotId, lotId), isNull(c.withdrawnAt)))
 			.all()
 			.filter((call) => call.short > 0);
-		if (short.length === 0) throw new JointError('No tracer of this lot is short.', 409);
+		if (short.length === 0) throw new DomainError('No tracer of this lot is short.', 409);
 		const now = Date.now();
 		const picked: number[] = [];
 		let selections = data.selections as LotSelection[];

@@ -1,6 +1,8 @@
-import { message, setError, superValidate } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as users from '$lib/server/users';
+import { signInWithPassword } from '../../../auth';
+import { formFailure } from '$lib/server/errors';
 import * as projects from '$lib/server/projects';
 import { changePasswordSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
@@ -22,7 +24,8 @@ export const load = (async ({ locals }) => {
 }) satisfies PageServerLoad;
 
 export const actions = {
-	password: async ({ request, locals }) => {
+	password: async (event) => {
+		const { request, locals } = event;
 		const form = await superValidate(request, zod4(changePasswordSchema));
 		const clear = () => Object.assign(form.data, { current: '', password: '', confirm: '' });
 		if (!form.valid) {
@@ -33,10 +36,16 @@ export const actions = {
 			await users.changePassword(locals.user!.id, form.data.current, form.data.password);
 		} catch (error) {
 			clear();
-			if (error instanceof users.AccountError) return setError(form, 'current', error.message);
-			throw error;
+			return formFailure(error, form);
 		}
+		// The change ended every session, this one too: sign this one in again under the new password.
+		const signedIn = await signInWithPassword(event, locals.user!.email, form.data.password);
 		clear();
-		return message(form, 'Your new password is set.');
+		return message(
+			form,
+			signedIn
+				? 'Your new password is set. Any other session of yours has been signed out.'
+				: 'Your new password is set. Sign in again with it.'
+		);
 	}
 } satisfies Actions;

@@ -8,6 +8,7 @@ export const GET: RequestHandler = ({ locals }) => {
 		id: user.id,
 		email: user.email,
 		name: user.name,
+		// eslint-disable-next-line no-restricted-syntax -- the caller's own account, as stored
 		isAdmin: user.isAdmin,
 		roles: user.roles,
 		via: user.tokenId ? 'token' : 'session'

@@ -6,7 +6,7 @@ import type { RequestHandler } from './$types';
 /** The projects the caller belongs to (an administrator sees all). */
 export const GET: RequestHandler = ({ locals }) => {
 	const user = locals.user!;
-	const rows = projects.list(user.isAdmin ? undefined : Object.keys(user.roles).map(Number));
+	const rows = projects.visibleTo(user);
 	return json(
 		rows.map((p) => ({
 			id: p.id,

@@ -2,6 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as users from '$lib/server/users';
+import { formFailure } from '$lib/server/errors';
 import { tokenCreateSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -24,9 +25,7 @@ export const actions = {
 		try {
 			users.revokeToken(locals.user!.id, id);
 		} catch (error) {
-			if (error instanceof users.AccountError)
-				return fail(error.status, { revokeError: error.message });
-			throw error;
+			return formFailure(error);
 		}
 		return { revoked: id };
 	}

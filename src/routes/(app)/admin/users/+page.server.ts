@@ -3,6 +3,7 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { sendSignInLink } from '../../../../auth';
 import * as users from '$lib/server/users';
+import { formFailure } from '$lib/server/errors';
 import * as projects from '$lib/server/projects';
 import { inviteSchema } from '$lib/schemas/account';
 import type { Actions, PageServerLoad } from './$types';
@@ -19,9 +20,7 @@ async function userAction(request: Request, run: (userId: string) => unknown) {
 	try {
 		await run(userId);
 	} catch (error) {
-		if (error instanceof users.AccountError)
-			return fail(error.status, { userError: error.message });
-		throw error;
+		return formFailure(error);
 	}
 	return null;
 }
@@ -38,9 +37,7 @@ export const actions = {
 		try {
 			users.invite(form.data, locals.user!.id);
 		} catch (error) {
-			if (error instanceof users.AccountError)
-				return message(form, error.message, { status: error.status });
-			throw error;
+			return formFailure(error, form);
 		}
 		await sendSignInLink(url.origin, form.data.email, 'invite');
 		return message(form, `Invitation sent to ${form.data.email}.`);

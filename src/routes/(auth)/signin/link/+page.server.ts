@@ -25,12 +25,14 @@ export const actions = {
 			guard.refused(attempt);
 			return message(form, 'Too many requests. Wait a few minutes and try again.', { status: 429 });
 		}
-		await sendSignInLink(
-			event.url.origin,
-			form.data.email,
-			'sign-in',
-			safeReturnTo(event.url.searchParams.get('returnTo'))
-		);
+		// Over the limit for this address or client nothing is sent, and the page says the same.
+		if (guard.linkRequested(attempt))
+			await sendSignInLink(
+				event.url.origin,
+				form.data.email,
+				'sign-in',
+				safeReturnTo(event.url.searchParams.get('returnTo'))
+			);
 		redirect(303, '/signin/check-email');
 	}
 } satisfies Actions;

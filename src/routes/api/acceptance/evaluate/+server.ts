@@ -2,6 +2,7 @@ import { json } from '@sveltejs/kit';
 import { acceptanceNotice, builtInCriteriaSetIds, evaluate, getCriteriaSet } from '$lib/acceptance';
 import { isMember } from '$lib/permissions';
 import { apiError, invalid } from '$lib/server/api';
+import { readJson } from '$lib/server/api-body';
 import * as criteriaSets from '$lib/server/criteria-sets';
 import { evaluateRequestSchema } from '$lib/schemas/acceptance';
 import type { RequestHandler } from './$types';
@@ -15,8 +16,12 @@ const EXAMPLE =
  * the criteria may also be one of that project's own sets (latest version).
  */
 export const POST: RequestHandler = async ({ request, locals }) => {
-	const body: unknown = await request.json().catch(() => undefined);
-	if (body === undefined) return apiError(400, `The body is not JSON. Send ${EXAMPLE}.`, 'body');
+	const read = await readJson(request);
+	if ('response' in read)
+		return read.response.status === 413
+			? read.response
+			: apiError(400, `The body is not JSON. Send ${EXAMPLE}.`, 'body');
+	const body = read.body;
 	if (typeof body !== 'object' || body === null || Array.isArray(body)) {
 		return apiError(400, `The body must be a JSON object, such as ${EXAMPLE}.`, 'body');
 	}

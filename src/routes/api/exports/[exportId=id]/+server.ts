@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as exports from '$lib/server/exports';
 import { apiError } from '$lib/server/api';
-import { exportErrorResponse } from '$lib/server/export-errors';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /** `{ id, status, progress: 0..1, current?, report: [...], fileUrl? … }` of one export. */
@@ -15,6 +15,6 @@ export const DELETE: RequestHandler = ({ params, locals }) => {
 	try {
 		return json(exports.cancel(Number(params.exportId), locals.user!.id));
 	} catch (error) {
-		return exportErrorResponse(error);
+		return apiFailure(error);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { updateJointSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
@@ -16,6 +16,6 @@ export const PATCH: RequestHandler = async ({ params, request, locals }) => {
 		joints.update(Number(params.jointId), body.data, locals.user!.id);
 		return json(joints.detail(Number(params.jointId)));
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

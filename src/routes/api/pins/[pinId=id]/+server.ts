@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
-import * as joints from '$lib/server/joints';
+import * as pins from '$lib/server/pins';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { movePinSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
@@ -10,8 +10,8 @@ export const PATCH: RequestHandler = async ({ params, request, locals }) => {
 	const body = await parseBody(request, movePinSchema);
 	if ('response' in body) return body.response;
 	try {
-		return json(joints.movePin(Number(params.pinId), body.data, locals.user!.id));
+		return json(pins.move(Number(params.pinId), body.data, locals.user!.id));
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

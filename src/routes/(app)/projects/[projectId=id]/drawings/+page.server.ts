@@ -1,3 +1,4 @@
+import { error } from '@sveltejs/kit';
 import * as drawings from '$lib/server/drawings';
 import { queryOf } from '$lib/server/api';
 import { drawingListQuery } from '$lib/schemas/drawing';
@@ -6,7 +7,9 @@ import type { PageServerLoad } from './$types';
 
 export const load = (async ({ locals, url, parent }) => {
 	const { project } = await parent();
-	const query = drawingListQuery.parse(queryOf(url));
+	const parsed = drawingListQuery.safeParse(queryOf(url));
+	if (!parsed.success) error(400, parsed.error.issues[0]?.message ?? 'The search is not valid.');
+	const query = parsed.data;
 	const page = drawings.list(project.id, query);
 	const history = drawings.historyFor(page.items.map((item) => item.id));
 	return {

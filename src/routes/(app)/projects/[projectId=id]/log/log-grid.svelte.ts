@@ -30,8 +30,11 @@ function defaults(): VisibilityState {
 export class ColumnChoice {
 	visibility = $state<VisibilityState>(defaults());
 
-	constructor() {
-		if (typeof localStorage === 'undefined') return;
+	/**
+	 * Read the saved choice. Called once the page is in the browser: the server renders the
+	 * defaults, and hydration must see the same columns before they change.
+	 */
+	restore() {
 		try {
 			const saved: unknown = JSON.parse(localStorage.getItem(STORAGE_KEY) ?? 'null');
 			if (saved && typeof saved === 'object')

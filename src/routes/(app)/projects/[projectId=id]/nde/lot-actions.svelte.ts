@@ -4,7 +4,7 @@
  * send the request to the NDE contractor. Each action reloads the page's data when it lands.
  */
 import { invalidateAll } from '$app/navigation';
-import { callApi, isApiFailure } from '$lib/components/pins/pin-store.svelte';
+import { callApi, isApiFailure } from '$lib/api-client';
 
 export interface ProposedWeld {
 	id: number;

@@ -2,6 +2,7 @@
  * The outstanding board, kept current: fetched from the API with the filters, refreshed when
  * the project's event stream says someone recorded something (polling when the stream is down).
  */
+import { callApi, failureText } from '$lib/api-client';
 import { ProjectFeed } from '$lib/components/project-feed.svelte';
 import type { Board } from '$lib/server/outstanding';
 import type { JointState } from '$lib/joint-state';
@@ -59,12 +60,7 @@ export class BoardStore {
 	}
 
 	private async fetchList(state: JointState, offset: number, limit: number) {
-		const response = await fetch(this.url({ state, offset, limit }), {
-			headers: { accept: 'application/json' }
-		});
-		const body = await response.json().catch(() => ({}));
-		if (!response.ok) throw new Error(body.error ?? `The server answered ${response.status}.`);
-		return body as OwedGroup;
+		return callApi<OwedGroup>(this.url({ state, offset, limit }));
 	}
 
 	/** The next joints of one owed list, oldest first after those shown. */
@@ -75,7 +71,7 @@ export class BoardStore {
 			this.more[group.state] = [...(this.more[group.state] ?? []), ...list.items];
 			this.error = '';
 		} catch (error) {
-			this.error = error instanceof Error ? error.message : 'More joints could not be loaded.';
+			this.error = failureText(error, 'More joints could not be loaded.');
 		} finally {
 			this.loadingMore = null;
 		}
@@ -103,30 +99,26 @@ export class BoardStore {
 	async refresh(): Promise<void> {
 		const generation = ++this.generation;
 		try {
-			const response = await fetch(this.url(), { headers: { accept: 'application/json' } });
-			const body = await response.json().catch(() => ({}));
+			const body = await callApi<BoardData>(this.url());
 			if (generation !== this.generation) return;
-			if (!response.ok) {
-				this.error = body.error ?? `The server answered ${response.status}.`;
-				return;
-			}
-			if (Object.keys(this.more).length) await this.refreshMore(body as BoardData, generation);
+			if (Object.keys(this.more).length) await this.refreshMore(body, generation);
 			if (generation !== this.generation) return;
-			this.data = body as BoardData;
+			this.data = body;
 			this.error = '';
-		} catch {
+		} catch (failure) {
 			if (generation === this.generation)
-				this.error = 'The board could not be loaded. Check the connection.';
+				this.error = failureText(failure, 'The board could not be loaded. Check the connection.');
 		}
 	}
 
 	private soon() {
 		if (this.settle) clearTimeout(this.settle);
-		this.settle = setTimeout(() => this.refresh(), SETTLE_MS);
+		this.settle = setTimeout(() => void this.refresh(), SETTLE_MS);
 	}
 
 	follow(): () => void {
-		this.refresh();
+		// refresh() shows its own failures as the board's error.
+		void this.refresh();
 		// Written, never read, here: the effect that calls follow() must not depend on it.
 		const feed = new ProjectFeed(this.projectId, () => this.soon(), POLL_MS);
 		this.#feed = feed;

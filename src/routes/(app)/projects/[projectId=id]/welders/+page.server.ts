@@ -1,88 +1,72 @@
 import { fail } from '@sveltejs/kit';
-import type { z } from 'zod';
+import { message, setError, superValidate, type SuperValidated } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
 import * as welders from '$lib/server/welders';
 import * as nde from '$lib/server/nde';
+import { DomainError } from '$lib/server/errors';
 import { can } from '$lib/permissions';
-import { qualificationSchema, welderSchema, welderStatusSchema } from '$lib/schemas/outstanding';
+import {
+	welderFormSchema,
+	welderFromForm,
+	welderQualificationSchema,
+	welderStatusSchema
+} from '$lib/schemas/outstanding';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load = (({ locals }) => ({
+/** What an action tells the person who sent the form. */
+export type WelderNotice = { tone: 'ok' | 'error'; text: string };
+
+export const load = (async ({ locals }) => ({
 	title: 'Welders',
 	...welders.register(locals.projectId!),
 	canManage: can(locals.user!, 'welder.manage', locals.projectId!),
+	form: await superValidate(zod4(welderFormSchema), { id: 'create' }),
 	repairRates: nde.repairRates(locals.projectId!)
 })) satisfies PageServerLoad;
 
-type Failure = { action: string; message: string; field?: string; error: true };
-
-/** The filled-in fields of a form; a blank optional field is left out, not sent as ''. */
-function fieldsOf(form: FormData): Record<string, string> {
-	return Object.fromEntries(
-		[...form.entries()].filter(
-			(entry): entry is [string, string] => typeof entry[1] === 'string' && entry[1].trim() !== ''
-		)
-	);
-}
-
-function parsed<T extends z.ZodType>(schema: T, input: unknown, action: string) {
-	const result = schema.safeParse(input);
-	if (result.success) return { data: result.data as z.infer<T> };
-	const issue = result.error.issues[0];
-	return {
-		failure: fail(400, {
-			action,
-			message: issue?.message ?? 'The form is not valid.',
-			field: issue?.path.join('.'),
-			error: true
-		} satisfies Failure)
-	};
-}
-
-function refused(action: string, error: unknown) {
-	if (error instanceof welders.WelderError)
-		return fail(error.status, {
-			action,
-			message: error.message,
-			field: error.field,
-			error: true
-		} satisfies Failure);
-	throw error;
+/** A refusal of the register (a stamp taken, a welder gone) shown on the form that asked. */
+function refused<T extends Record<string, unknown>>(form: SuperValidated<T>, error: unknown) {
+	if (!(error instanceof DomainError)) throw error;
+	const text = error.message;
+	if (error.field && error.field in form.data) {
+		return setError(form, error.field as never, text, { status: error.status });
+	}
+	return message(form, { tone: 'error', text } satisfies WelderNotice, { status: error.status });
 }
 
 export const actions = {
 	create: async ({ request, locals }) => {
-		const { process, qualifiedOn, reference, ...welder } = fieldsOf(await request.formData());
-		// The form adds the welder with their first process; more come through "Add a process".
-		const processes = process ? [{ process, qualifiedOn, reference }] : [];
-		const input = parsed(welderSchema, { ...welder, processes }, 'create');
-		if ('failure' in input) return input.failure;
+		const form = await superValidate(request, zod4(welderFormSchema), { id: 'create' });
+		if (!form.valid) return fail(400, { form });
 		try {
-			const welder = welders.create(locals.projectId!, input.data, locals.user!.id);
-			return { action: 'create', message: `Welder ${welder.stamp} (${welder.name}) added.` };
+			const welder = welders.create(locals.projectId!, welderFromForm(form.data), locals.user!.id);
+			const text = `Welder ${welder.stamp} (${welder.name}) added.`;
+			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused('create', error);
+			return refused(form, error);
 		}
 	},
 	qualify: async ({ request, locals }) => {
-		const form = await request.formData();
-		const input = parsed(qualificationSchema, fieldsOf(form), 'qualify');
-		if ('failure' in input) return input.failure;
-		const welderId = Number(form.get('welderId'));
+		const form = await superValidate(request, zod4(welderQualificationSchema), { id: 'qualify' });
+		if (!form.valid) return fail(400, { form });
+		const { welderId, ...qualification } = form.data;
 		try {
-			welders.qualify(locals.projectId!, welderId, input.data, locals.user!.id);
-			return { action: 'qualify', message: `${input.data.process} qualification recorded.` };
+			welders.qualify(locals.projectId!, welderId, qualification, locals.user!.id);
+			const text = `${qualification.process} qualification recorded.`;
+			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused('qualify', error);
+			return refused(form, error);
 		}
 	},
 	status: async ({ request, locals }) => {
-		const input = parsed(welderStatusSchema, fieldsOf(await request.formData()), 'status');
-		if ('failure' in input) return input.failure;
+		const form = await superValidate(request, zod4(welderStatusSchema), { id: 'status' });
+		if (!form.valid) return fail(400, { form });
 		try {
-			welders.setStatus(locals.projectId!, input.data.welderId, input.data.status, locals.user!.id);
-			return { action: 'status', message: `Welder marked ${input.data.status}.` };
+			welders.setStatus(locals.projectId!, form.data.welderId, form.data.status, locals.user!.id);
+			const text = `Welder marked ${form.data.status}.`;
+			return message(form, { tone: 'ok', text } satisfies WelderNotice);
 		} catch (error) {
-			return refused('status', error);
+			return refused(form, error);
 		}
 	}
 } satisfies Actions;

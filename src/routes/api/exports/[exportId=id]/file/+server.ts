@@ -2,7 +2,7 @@ import { Readable } from 'node:stream';
 import { json } from '@sveltejs/kit';
 import * as exports from '$lib/server/exports';
 import * as storage from '$lib/server/storage';
-import { exportErrorResponse } from '$lib/server/export-errors';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /** The zip of a finished export, after the permission check in the hooks; never a static file. */
@@ -11,7 +11,7 @@ export const GET: RequestHandler = ({ params }) => {
 	try {
 		file = exports.fileOf(Number(params.exportId));
 	} catch (error) {
-		return exportErrorResponse(error);
+		return apiFailure(error);
 	}
 	const stream = Readable.toWeb(storage.read(file.fileKey)) as ReadableStream;
 	return new Response(stream, {
@@ -34,6 +34,6 @@ export const DELETE: RequestHandler = async ({ params, locals }) => {
 	try {
 		return json(await exports.removeFile(Number(params.exportId), locals.user!.id));
 	} catch (error) {
-		return exportErrorResponse(error);
+		return apiFailure(error);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { cutOutSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
@@ -24,6 +24,6 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 			{ status: 201 }
 		);
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

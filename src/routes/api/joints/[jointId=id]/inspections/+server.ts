@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as inspections from '$lib/server/inspections';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { recordInspectionSchema } from '$lib/schemas/inspection';
 import { acceptanceNotice } from '$lib/acceptance';
 import type { RequestHandler } from './$types';
@@ -21,6 +21,6 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 		const recorded = inspections.record(Number(params.jointId), body.data, locals.user!.id);
 		return json(recorded, { status: 201 });
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

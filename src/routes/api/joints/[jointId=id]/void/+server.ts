@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { voidJointSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
@@ -13,6 +13,6 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 		joints.voidJoint(Number(params.jointId), body.data.reason, body.data.version, locals.user!.id);
 		return json(joints.detail(Number(params.jointId)));
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

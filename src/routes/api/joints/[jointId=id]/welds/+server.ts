@@ -1,8 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as welds from '$lib/server/welds';
-import { apiError } from '$lib/server/api';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { recordWeldSchema } from '$lib/schemas/inspection';
 import type { RequestHandler } from './$types';
 
@@ -16,14 +15,9 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 	if ('response' in body) return body.response;
 	const user = locals.user!;
 	try {
-		const recorded = welds.record(Number(params.jointId), body.data, {
-			id: user.id,
-			isAdmin: user.isAdmin
-		});
+		const recorded = welds.record(Number(params.jointId), body.data, user);
 		return json(recorded, { status: 201 });
 	} catch (error) {
-		if (error instanceof welds.WeldOverrideError)
-			return apiError(error.status, error.message, error.field);
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

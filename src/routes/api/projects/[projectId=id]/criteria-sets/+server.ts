@@ -1,9 +1,9 @@
 import { json } from '@sveltejs/kit';
 import { acceptanceNotice, builtInCriteriaSetIds } from '$lib/acceptance';
 import * as criteriaSets from '$lib/server/criteria-sets';
-import { apiError } from '$lib/server/api';
 import { parseBody } from '$lib/server/api-body';
 import { criteriaSetSchema } from '$lib/schemas/criteria-set';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /** The project's own criteria sets at their latest versions, with base, versions and limits. */
@@ -27,9 +27,6 @@ export const POST: RequestHandler = async ({ request, locals }) => {
 		const saved = criteriaSets.list(projectId).find((item) => item.set.id === set.id)!;
 		return json(criteriaSets.projectSetJson(saved), { status: created ? 201 : 200 });
 	} catch (error) {
-		if (error instanceof criteriaSets.CriteriaSetProblem) {
-			return apiError(error.status, error.message, error.field);
-		}
-		throw error;
+		return apiFailure(error);
 	}
 };

@@ -3,12 +3,14 @@ import * as drawings from '$lib/server/drawings';
 import * as staged from '$lib/server/staged-uploads';
 import { apiError, invalid, queryOf } from '$lib/server/api';
 import { drawingListQuery, newDrawingSchema } from '$lib/schemas/drawing';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /** The register: `?q=&kind=&area=&status=&sort=&dir=&page=&pageSize=`. */
 export const GET: RequestHandler = ({ locals, url }) => {
-	const query = drawingListQuery.parse(queryOf(url));
-	const page = drawings.list(locals.projectId!, query);
+	const query = drawingListQuery.safeParse(queryOf(url));
+	if (!query.success) return invalid(query);
+	const page = drawings.list(locals.projectId!, query.data);
 	return json({
 		...page,
 		items: page.items.map(
@@ -48,7 +50,6 @@ export const POST: RequestHandler = async ({ locals, request }) => {
 			{ status: 201 }
 		);
 	} catch (error) {
-		if (error instanceof drawings.DrawingError) return apiError(error.status, error.message);
-		throw error;
+		return apiFailure(error);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as exports from '$lib/server/exports';
 import { parseBody } from '$lib/server/api-body';
-import { exportErrorResponse } from '$lib/server/export-errors';
+import { apiFailure } from '$lib/server/errors';
 import { exportRequestSchema } from '$lib/schemas/export';
 import type { RequestHandler } from './$types';
 
@@ -25,6 +25,6 @@ export const POST: RequestHandler = async ({ locals, request, url }) => {
 			{ status: 202, headers: { location: `/api/exports/${started.id}` } }
 		);
 	} catch (error) {
-		return exportErrorResponse(error);
+		return apiFailure(error);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as inspectionRequests from '$lib/server/inspection-requests';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { inspectionRequestSchema } from '$lib/schemas/outstanding';
 import type { RequestHandler } from './$types';
 
@@ -23,7 +23,7 @@ export const POST: RequestHandler = async ({ locals, request, url }) => {
 	try {
 		created = inspectionRequests.create(projectId, body.data, userId);
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 	let notified: string[] = [];
 	let mailError: string | undefined;

@@ -1,8 +1,8 @@
 import { json } from '@sveltejs/kit';
 import * as welders from '$lib/server/welders';
-import { apiError } from '$lib/server/api';
 import { parseBody } from '$lib/server/api-body';
 import { welderSchema } from '$lib/schemas/outstanding';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /**
@@ -20,8 +20,6 @@ export const POST: RequestHandler = async ({ locals, request }) => {
 		const item = welders.list(locals.projectId!).find((w) => w.id === welder.id);
 		return json({ welder: item }, { status: 201 });
 	} catch (error) {
-		if (error instanceof welders.WelderError)
-			return apiError(error.status, error.message, error.field);
-		throw error;
+		return apiFailure(error);
 	}
 };

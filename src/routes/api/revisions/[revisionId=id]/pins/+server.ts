@@ -1,14 +1,15 @@
 import { json } from '@sveltejs/kit';
 import * as joints from '$lib/server/joints';
+import * as pins from '$lib/server/pins';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { createPinSchema } from '$lib/schemas/joint';
 import type { RequestHandler } from './$types';
 
 /** Every pin on the revision, at its PDF user-space point, with its joint's state. */
 export const GET: RequestHandler = ({ params }) =>
 	json(
-		{ items: joints.pinsOf(Number(params.revisionId)) },
+		{ items: pins.ofRevision(Number(params.revisionId)) },
 		{ headers: { 'cache-control': 'no-store' } }
 	);
 
@@ -23,6 +24,6 @@ export const POST: RequestHandler = async ({ params, request, locals }) => {
 		);
 		return json({ joint: joints.detail(joint.id), pin }, { status: 201 });
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

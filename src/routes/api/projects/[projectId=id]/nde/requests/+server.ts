@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import * as nde from '$lib/server/nde';
 import { apiError } from '$lib/server/api';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { sendRequestSchema } from '$lib/schemas/nde';
 import type { RequestHandler } from './$types';
 
@@ -23,6 +23,6 @@ export const POST: RequestHandler = async ({ locals, request, url }) => {
 		return json(sent, { status: 201 });
 	} catch (error) {
 		if (error instanceof nde.RequestNotSent) return apiError(502, error.message);
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

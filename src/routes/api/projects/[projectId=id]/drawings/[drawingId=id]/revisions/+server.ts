@@ -3,6 +3,7 @@ import * as drawings from '$lib/server/drawings';
 import * as staged from '$lib/server/staged-uploads';
 import { apiError, invalid } from '$lib/server/api';
 import { newRevisionSchema } from '$lib/schemas/drawing';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 export const GET: RequestHandler = ({ params }) =>
@@ -41,7 +42,6 @@ export const POST: RequestHandler = async ({ locals, params, request }) => {
 			{ status: 201 }
 		);
 	} catch (error) {
-		if (error instanceof drawings.DrawingError) return apiError(error.status, error.message);
-		throw error;
+		return apiFailure(error);
 	}
 };

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import * as nde from '$lib/server/nde';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { closeLotSchema } from '$lib/schemas/nde';
 import type { RequestHandler } from './$types';
 
@@ -13,6 +13,6 @@ export const POST: RequestHandler = async ({ locals, params, request }) => {
 		const lot = nde.close(locals.projectId!, Number(params.lotId), body.data.note, locals.user!.id);
 		return json({ lot });
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import * as nde from '$lib/server/nde';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import type { RequestHandler } from './$types';
 
 /** Reopen a closed lot (QC manager), while no later lot of its grouping has taken welds. */
@@ -8,6 +8,6 @@ export const POST: RequestHandler = ({ locals, params }) => {
 	try {
 		return json({ lot: nde.reopen(locals.projectId!, Number(params.lotId), locals.user!.id) });
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };

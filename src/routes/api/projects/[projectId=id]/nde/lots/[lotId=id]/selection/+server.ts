@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import * as nde from '$lib/server/nde';
 import { apiError } from '$lib/server/api';
 import { parseBody } from '$lib/server/api-body';
-import { jointErrorResponse } from '$lib/server/joint-errors';
+import { apiFailure } from '$lib/server/errors';
 import { commitSelectionSchema, seedSchema } from '$lib/schemas/nde';
 import type { RequestHandler } from './$types';
 
@@ -21,7 +21,7 @@ export const GET: RequestHandler = ({ locals, params, url }) => {
 	try {
 		return json(nde.propose(locals.projectId!, Number(params.lotId), seed));
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };
 
@@ -41,6 +41,6 @@ export const POST: RequestHandler = async ({ locals, params, request }) => {
 		);
 		return json(committed, { status: 201 });
 	} catch (error) {
-		return jointErrorResponse(error);
+		return apiFailure(error);
 	}
 };
