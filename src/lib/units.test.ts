@@ -131,7 +131,9 @@ describe('parseLength', () => {
 		expect(message).toMatch(/bare number is read as inches/);
 		expect(
 			refusal(parseLength('13 in', { units: 'imperial', reading: quantitySpec('undercutLength') }))
-		).toMatch(/^Undercut length:/);
+		).toMatch(
+			/^Undercut — total length in any 12 in \(300 mm\): 13 in \(330\.2 mm\) is more than any plausible undercut \(/
+		);
 		expect(
 			parseLength('12 in', { units: 'imperial', reading: quantitySpec('undercutLength') }).ok
 		).toBe(true);
@@ -150,7 +152,7 @@ describe('parseLength', () => {
 	it('refuses a number that is not finite', () => {
 		expect(
 			refusal(parseLength(Number.NaN, { units: 'imperial', reading: quantitySpec('porosity') }))
-		).toMatch(/^Porosity:/);
+		).toMatch(/^Porosity — sum of pore diameters in any 1 in \(25 mm\):/);
 	});
 });
 

@@ -11,7 +11,7 @@ export const MM_PER_INCH = 25.4;
 export type QuantityKind = 'length' | 'angle';
 
 export interface PlausibleRange {
-	/** mm for lengths, degrees for angles */
+	/** mm for lengths, degrees for angles, µm Ra for roughness, a number for counts */
 	min: number;
 	max: number;
 	/** true where zero means "no weld" or "no part" rather than a reading of nothing */
@@ -125,9 +125,11 @@ function checkPlausible(
 		const bare = typed.bare
 			? `; a bare number is read as ${typed.unit === 'in' ? 'inches' : typed.unit === 'mm' ? 'millimetres' : 'degrees'}`
 			: '';
+		// "Undercut — total length in any 12 in (300 mm)" is named by what comes before the dash.
+		const noun = label.split(' — ')[0].toLowerCase();
 		return {
 			ok: false,
-			message: `${label}: ${show(value, typed.unit)} is more than any plausible ${label.toLowerCase()} (at most ${show(plausible.max, typed.unit)})${bare}`
+			message: `${label}: ${show(value, typed.unit)} is more than any plausible ${noun} (at most ${show(plausible.max, typed.unit)})${bare}`
 		};
 	}
 	return { ok: true, value, text: typed.text, unit: typed.unit };

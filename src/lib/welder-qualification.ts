@@ -7,7 +7,7 @@
 /**
  * Six months without the process and the qualification lapses:
  * ASME BPVC Section IX QW-322.1(a) ("6 months or more" without welding in that process) and
- * AWS D1.1:2020 6.2.3.1 ("more than six months"; clause number from memory, 4.1.3.1 in 2006).
+ * AWS D1.1:2020 6.2.3.1 ("more than six months"; clause number unconfirmed, 4.1.3.1 in 2006).
  * Both run per process, from the last day the welder used it (or the test itself).
  */
 export const CONTINUITY_MONTHS = 6;

@@ -54,7 +54,7 @@ test('a project set derived by the administrator governs the live verdict', asyn
 	await editor.getByLabel('Name', { exact: true }).fill('PS-201 process piping');
 	const undercut = editor.locator('tr[data-check="undercut.depth"]');
 	await expect(undercut.getByTestId('base-value')).toHaveText(
-		'at most the lesser of 1/32 in and 0.25 × thickness at any length'
+		'at most (the lesser of 1/32 in and 0.25 × thickness, none for longitudinal seams) at any length'
 	);
 	await expect(undercut).toContainText('Table 341.3.2, undercut, criterion H');
 	await undercut.getByLabel('Change for this project').check();

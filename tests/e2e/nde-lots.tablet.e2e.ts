@@ -144,7 +144,8 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 	await form.getByLabel('Report number').fill('RT-E2E-001');
 	await form.getByLabel('Technician').fill('T. Example, Level II');
 	await form.getByRole('button', { name: /^Add an indication/ }).click();
-	await form.getByLabel('Type', { exact: true }).selectOption('incomplete penetration');
+	// A crack: none permitted on RT (ASME B31.3-2018 Table 341.3.2); the engine's verdict shows.
+	await form.getByLabel('1. Type').selectOption('crack');
 	await form.getByLabel('Length', { exact: true }).fill('3/8');
 	await form.getByRole('button', { name: /^Reject/ }).click();
 	await form.getByRole('button', { name: 'Sign and record' }).click();

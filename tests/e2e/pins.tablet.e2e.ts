@@ -14,14 +14,14 @@ interface Box {
 	rotation: number;
 }
 
-/** PDF user-space point under a screen point, worked out from the sheet canvas on screen. */
+/** PDF user-space point under a screen point, worked out from the sheet on screen. */
 async function pdfPointAt(
 	page: Page,
 	screenX: number,
 	screenY: number,
 	box: Box
 ): Promise<[number, number]> {
-	const sheet = (await page.getByTestId('sheet-canvas').boundingBox())!;
+	const sheet = (await page.getByTestId('sheet').boundingBox())!;
 	const w = box.x1 - box.x0;
 	const h = box.y1 - box.y0;
 	const turned = box.rotation === 90 || box.rotation === 270;
@@ -43,7 +43,7 @@ async function pinCentre(page: Page, number: string): Promise<[number, number]> 
 
 /** A point on the sheet at least 50 px from every pin, so a tap there places a new one. */
 async function emptySpot(page: Page): Promise<[number, number]> {
-	const sheet = (await page.getByTestId('sheet-canvas').boundingBox())!;
+	const sheet = (await page.getByTestId('sheet').boundingBox())!;
 	const centres = await page
 		.locator('[data-testid=pin] circle:first-child')
 		.evaluateAll((circles) =>

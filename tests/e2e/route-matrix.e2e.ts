@@ -188,7 +188,11 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
 			exportId: String(exportId),
-			lotId: String(lot.id)
+			lotId: String(lot.id),
+			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
+			page: '0',
+			level: '0',
+			tile: '0_0.webp'
 		};
 	}
 	await admin.dispose();

@@ -63,7 +63,7 @@ describe('POST /api/acceptance/evaluate', () => {
 			reading: 'undercutDepth',
 			unit: 'mm',
 			outcome: 'within',
-			clause: 'Table 8.1 (undercut), statically loaded'
+			clause: 'Table 8.1 (7)(A) undercut, statically loaded'
 		});
 		expect(findingOf(answer, 'undercut.depth')?.limit).toBeCloseTo(inches(1 / 32), 9);
 		expect(answer.notice).toBe(acceptanceNotice);
@@ -90,7 +90,7 @@ describe('POST /api/acceptance/evaluate', () => {
 		const length = findingOf(answer, 'undercut.length');
 		expect(length).toMatchObject({ reading: 'undercutLength', outcome: 'outside' });
 		expect(length?.limit).toBeCloseTo(inches(2), 9);
-		expect(length?.clause).toBe('Table 8.1 (undercut), statically loaded');
+		expect(length?.clause).toBe('Table 8.1 (7)(A) undercut, statically loaded');
 	});
 
 	// Same clause: without the accumulated length the engine cannot tell, so it asks for it.
@@ -101,7 +101,12 @@ describe('POST /api/acceptance/evaluate', () => {
 
 		const deeper = await evaluateBody({ ...plate, readings: { undercutDepth: '5/64' } });
 		expect(deeper.answer.verdict).toBe('outside');
-		expect(findingOf(deeper.answer, 'undercut.depth')?.limit).toBeCloseTo(inches(1 / 16), 9);
+		// The limit shown is the same for any depth: 1/32 in at any length, 1/16 in over a limited length.
+		const depth = findingOf(deeper.answer, 'undercut.depth') as Finding & {
+			band: { upTo: number };
+		};
+		expect(depth.limit).toBeCloseTo(inches(1 / 32), 9);
+		expect(depth.band.upTo).toBeCloseTo(inches(1 / 16), 9);
 	});
 
 	// AWS D1.1:2020 Table 8.1 (crack prohibition): any crack is outside.
@@ -234,13 +239,17 @@ describe('POST /api/acceptance/evaluate refuses', () => {
 		expect(noJoint.answer.field).toBe('joint');
 	});
 
-	it('a stage other than fitup or visual', async () => {
-		const { status, answer } = await evaluateBody({ ...plate, stage: 'nde' });
+	it('a stage other than fitup, visual or nde, and nde without its method', async () => {
+		const { status, answer } = await evaluateBody({ ...plate, stage: 'weld' });
 		expect(status).toBe(400);
 		expect(answer).toEqual({
 			field: 'stage',
-			error: 'stage: The stage must be one of fitup, visual.'
+			error:
+				'stage: The stage must be one of fitup, visual, or nde with the indications of an RT or UT report.'
 		});
+		const nde = await evaluateBody({ ...plate, stage: 'nde' });
+		expect(nde.status).toBe(400);
+		expect(nde.answer.field).toBe('method');
 	});
 
 	it('a reading the engine does not know, or a joint length it cannot read', async () => {
@@ -257,6 +266,142 @@ describe('POST /api/acceptance/evaluate refuses', () => {
 		const { status, answer } = await evaluateBody({ ...plate, units: 'inches' });
 		expect(status).toBe(400);
 		expect(answer.field).toBe('units');
+	});
+});
+
+describe('POST /api/acceptance/evaluate, readings only some codes judge', () => {
+	const b313 = { criteria: 'asme-b31.3-normal', stage: 'visual' };
+	const nps6 = { kind: 'butt', thickness: '0.280 in', diameter: '6.625 in' };
+
+	// ASME B31.3-2018 Table 341.3.2 criterion B: incomplete penetration ≤ 1/32 in and ≤ 0.2Tw deep,
+	// ≤ 1.5 in in any 6 in; criterion L for internal protrusion (Tw ≤ 1/2 in: 1/8 in).
+	it('judges incomplete penetration and root protrusion of a B31.3 girth weld', async () => {
+		const { status, answer } = await evaluateBody({
+			...b313,
+			joint: nps6,
+			readings: {
+				incompletePenetrationLength: '1-1/2 in',
+				incompletePenetrationDepth: '1/32',
+				rootProtrusion: '1/8'
+			}
+		});
+		expect(status).toBe(200);
+		expect(findingOf(answer, 'penetration.length')).toMatchObject({ outcome: 'within' });
+		expect(findingOf(answer, 'penetration.depth')).toMatchObject({ outcome: 'within' });
+		expect(findingOf(answer, 'rootProtrusion.max')).toMatchObject({ outcome: 'within' });
+		expect(answer.derived.girthLengthMm).toBeCloseTo(Math.PI * inches(6.625), 9);
+
+		const deep = await evaluateBody({
+			...b313,
+			joint: nps6,
+			readings: { incompletePenetrationLength: '1/2', incompletePenetrationDepth: '3/64' }
+		});
+		expect(deep.answer.verdict).toBe('outside');
+	});
+
+	// AWS D1.1:2020 Table 8.1 (8)(B) [1]: at most one pore in 4 in of a cyclically loaded fillet.
+	it('counts pores, and refuses a count that is no whole number', async () => {
+		const cyclic = {
+			criteria: 'aws-d1.1-cyclic',
+			stage: 'visual',
+			joint: { kind: 'fillet', thickness: '1/2 in', requiredSize: '1/4 in' }
+		};
+		const two = await evaluateBody({ ...cyclic, readings: { poreLargest: '1/16', poreCount: 2 } });
+		expect(findingOf(two.answer, 'pore.count')).toMatchObject({
+			measured: 2,
+			limit: 1,
+			unit: 'count',
+			outcome: 'outside'
+		});
+		const half = await evaluateBody({ ...cyclic, readings: { poreCount: '1.5' } });
+		expect(half.status).toBe(400);
+		expect(half.answer).toEqual({
+			field: 'readings.poreCount',
+			error: 'Pores — number in any 4 in (100 mm): give a whole number, such as 0, 1 or 3'
+		});
+	});
+
+	// ASME B31.3-2018 Table 341.3.2 criterion J: Ra ≤ 500 µin under severe cyclic conditions.
+	it('reads a surface roughness in µin or µm, and names an unreadable one', async () => {
+		const severe = { criteria: 'asme-b31.3-severe-cyclic', stage: 'visual', joint: nps6 };
+		const rough = await evaluateBody({ ...severe, readings: { surfaceRoughness: '600 µin' } });
+		expect(findingOf(rough.answer, 'surfaceFinish.max')).toMatchObject({
+			unit: 'um',
+			outcome: 'outside'
+		});
+		const bad = await evaluateBody({ ...severe, readings: { surfaceRoughness: 'rough' } });
+		expect(bad.status).toBe(400);
+		expect(bad.answer.field).toBe('readings.surfaceRoughness');
+	});
+
+	// ISO 5817:2014 507 (unconfirmed), level C, t = 7.3 mm: plates 1.095 mm, girth welds 3 mm.
+	it('gives the hi-lo limit of the joint it is told of, and both where it is not told', async () => {
+		const iso = { criteria: 'iso-5817-c', stage: 'fitup', units: 'metric' };
+		const unknown = await evaluateBody({
+			...iso,
+			joint: { kind: 'butt', thickness: 7.3 },
+			readings: { misalignment: 2.5 }
+		});
+		const misalignment = findingOf(unknown.answer, 'misalignment.max') as Finding & {
+			bounds: { min: number; max: number };
+		};
+		expect(misalignment).toMatchObject({ limit: null, outcome: 'judge', bounds: { max: 3 } });
+		expect(misalignment.bounds.min).toBeCloseTo(1.095, 9);
+		const girth = await evaluateBody({
+			...iso,
+			joint: { kind: 'butt', thickness: 7.3, seam: 'circumferential' },
+			readings: { misalignment: 2.5 }
+		});
+		expect(findingOf(girth.answer, 'misalignment.max')).toMatchObject({
+			limit: 3,
+			outcome: 'within'
+		});
+		const bad = await evaluateBody({
+			...iso,
+			joint: { kind: 'butt', thickness: 7.3, seam: 'spiral' }
+		});
+		expect(bad.status).toBe(400);
+		expect(bad.answer.field).toBe('joint.seam');
+	});
+});
+
+describe('POST /api/acceptance/evaluate, indications of an RT report', () => {
+	const rt = {
+		criteria: 'api-1104',
+		stage: 'nde',
+		method: 'RT',
+		joint: { kind: 'butt', thickness: '0.375 in', diameter: '12.75 in' }
+	};
+
+	// API 1104 21st ed. 9.3.1: an IP indication longer than 1 in (25 mm) is a defect.
+	it('judges each indication by the set and names the caution', async () => {
+		const { status, answer } = await evaluateBody({
+			...rt,
+			indications: [{ type: 'incompletePenetration', length: '1-1/16 in', position: '3 in' }]
+		});
+		expect(status).toBe(200);
+		expect(answer).toMatchObject({ verdict: 'outside', method: 'RT', notice: acceptanceNotice });
+		expect(findingOf(answer, 'nde.incompletePenetration.length')).toMatchObject({
+			outcome: 'outside',
+			clause: '9.3.1 (inadequate penetration without high-low, IP)'
+		});
+		const clean = await evaluateBody({ ...rt, indications: [] });
+		expect(clean.answer).toMatchObject({ verdict: 'within', findings: [] });
+	});
+
+	it('refuses an indication it cannot read, naming it, and MT', async () => {
+		const bad = await evaluateBody({
+			...rt,
+			indications: [{ type: 'incompletePenetration', length: 'long' }]
+		});
+		expect(bad.status).toBe(400);
+		expect(bad.answer.field).toBe('indications.0.length');
+		const kind = await evaluateBody({ ...rt, indications: [{ type: 'wormhole' }] });
+		expect(kind.status).toBe(400);
+		expect(kind.answer.field).toBe('indications.0.type');
+		const mt = await evaluateBody({ ...rt, method: 'MT' });
+		expect(mt.status).toBe(400);
+		expect(mt.answer.field).toBe('method');
 	});
 });
 
@@ -298,7 +443,7 @@ describe('GET /api/acceptance/criteria', () => {
 			(limit: { check: string }) => limit.check === 'undercut.depth'
 		);
 		expect(undercut).toMatchObject({
-			clause: 'Table 8.1 (undercut), statically loaded',
+			clause: 'Table 8.1 (7)(A) undercut, statically loaded',
 			confidence: '2+',
 			stages: ['visual']
 		});

@@ -155,10 +155,10 @@ describe('the base a project derives from', () => {
 		expect(depth('1/32').limit).toBeCloseTo(inches(1 / 32), 9);
 		expect(depth('3/64').outcome).toBe('outside');
 		expect(ruleWords(b313.limits['undercut.depth']!.rule, 'mm', 'imperial')).toBe(
-			'at most the lesser of 1/32 in and 0.25 × thickness at any length'
+			'at most (the lesser of 1/32 in and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 		expect(ruleWords(b313.limits['undercut.depth']!.rule, 'mm', 'metric')).toBe(
-			'at most the lesser of 1 mm and 0.25 × thickness at any length'
+			'at most (the lesser of 1 mm and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 	});
 });

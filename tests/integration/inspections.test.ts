@@ -326,6 +326,53 @@ describe('the verdict is the server own, and a decision against it needs a reaso
 		expect(accepted.joint.state).toBe('awaiting_lot');
 	});
 
+	// ASME B31.3-2018 Table 341.3.2 criterion B (normal, girth): incomplete penetration at most
+	// 1/32 in and 0.2Tw deep, at most 1.5 in in any 6 in; criterion L for internal protrusion.
+	it('judges and stores the root-side readings, a pore count and a roughness as typed', () => {
+		const joint = weldedJoint();
+		const recorded = inspect(joint.id, {
+			stage: 'visual',
+			readings: {
+				...WITHIN,
+				incompletePenetrationLength: '1 in',
+				incompletePenetrationDepth: '1/32',
+				rootProtrusion: '1/8',
+				poreCount: '0',
+				surfaceRoughness: '250 µin'
+			},
+			decision: 'accept'
+		});
+		expect(recorded.inspection.verdict).toBe('within');
+		const checks = recorded.inspection.findings.map((f) => f.check);
+		expect(checks).toEqual(
+			expect.arrayContaining(['penetration.length', 'penetration.depth', 'rootProtrusion.max'])
+		);
+		const stored = Object.fromEntries(recorded.inspection.readings.map((r) => [r.id, r]));
+		expect(stored.incompletePenetrationLength).toMatchObject({
+			text: '1 in',
+			value: 25.4,
+			unit: 'mm'
+		});
+		expect(stored.poreCount).toEqual({ id: 'poreCount', text: '0', value: 0, unit: 'count' });
+		expect(stored.surfaceRoughness).toMatchObject({ text: '250 µin', unit: 'um' });
+		expect(stored.surfaceRoughness.value).toBeCloseTo(6.35, 9);
+	});
+
+	it('is outside for incomplete penetration deeper than criterion B allows', () => {
+		const joint = weldedJoint();
+		expect(() =>
+			inspect(joint.id, {
+				stage: 'visual',
+				readings: {
+					...WITHIN,
+					incompletePenetrationLength: '1',
+					incompletePenetrationDepth: '3/64'
+				},
+				decision: 'accept'
+			})
+		).toThrow(expect.objectContaining({ status: 400, field: 'reason' }));
+	});
+
 	it('answers 400 naming the field for a reading it cannot read or does not know', async () => {
 		const joint = weldedJoint();
 		const unreadable = await call(postInspection, joint.id, inspectorId, {
@@ -343,6 +390,12 @@ describe('the verdict is the server own, and a decision against it needs a reaso
 		});
 		expect(unknown.status).toBe(400);
 		expect(unknown.body.field).toBe('readings.undercut');
+		const count = await call(postInspection, joint.id, inspectorId, {
+			stage: 'visual',
+			readings: { ...WITHIN, poreCount: 'a few' },
+			decision: 'accept'
+		});
+		expect(count).toMatchObject({ status: 400, body: { field: 'readings.poreCount' } });
 		const noMethod = await call(postInspection, joint.id, inspectorId, {
 			stage: 'nde',
 			decision: 'accept'

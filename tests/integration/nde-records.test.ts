@@ -174,9 +174,14 @@ describe('indications and the joint and length repair rate', () => {
 		).toThrow(expect.objectContaining({ status: 400, field: 'indications.0.length' }));
 		// Nothing stored with the refused record.
 		expect(inspections.list(sample).filter((r) => r.stage === 'nde')).toHaveLength(0);
+		// Read and judged by the acceptance engine: a crack is not permitted on RT of a
+		// normal-service girth weld (ASME B31.3-2018 Table 341.3.2); a slag line 1/4 in long and
+		// 1/16 in wide in 0.280 in wall is within criterion G (at most 2Tw long, 1/8 in and Tw/2
+		// wide, 4Tw in any 6 in).
 		const { inspection } = rt(sample, 'reject', {
 			indications: [
-				{ type: 'incomplete penetration', length: '1-1/4', location: '6 o’clock', rejected: true }
+				{ type: 'crack', length: '1-1/4', position: '6' },
+				{ type: 'elongatedSlag', length: '1/4', width: '1/16', position: '12' }
 			]
 		});
 		const kept = db
@@ -187,10 +192,19 @@ describe('indications and the joint and length repair rate', () => {
 		// 1-1/4 in = 31.75 mm exactly (1 in = 25.4 mm, NIST SP 811 B.8).
 		expect(kept).toEqual([
 			expect.objectContaining({
-				type: 'incomplete penetration',
+				type: 'crack',
 				lengthText: '1-1/4',
 				lengthMm: 31.75,
+				positionMm: expect.closeTo(152.4, 9),
+				outcome: 'outside',
 				rejected: true
+			}),
+			expect.objectContaining({
+				type: 'elongatedSlag',
+				lengthMm: 6.35,
+				widthMm: 1.5875,
+				outcome: 'within',
+				rejected: false
 			})
 		]);
 		expect(() =>
@@ -206,7 +220,7 @@ describe('indications and the joint and length repair rate', () => {
 	it('counts the rejected length from the indications, or the whole circumference', () => {
 		const { lotId, sample, ids } = sampledLine(5, 602);
 		rt(sample, 'reject', {
-			indications: [{ type: 'slag inclusion', length: '1', rejected: true }]
+			indications: [{ type: 'crack', length: '1' }]
 		});
 		const rate = nde.lotRates(projectId).find((l) => l.id === lotId)!.rate;
 		const c = circumferenceMm(outsideDiameterMm('6')!);

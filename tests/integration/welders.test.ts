@@ -1,7 +1,7 @@
 /**
  * The welder register: GET/POST /api/projects/{id}/welders and the module, against a real
  * SQLite file with a project made by the test factory. Continuity is the six-month rule of ASME BPVC Section IX
- * QW-322.1 and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006
+ * QW-322.1 and AWS D1.1:2020 6.2.3.1 (clause number unconfirmed; 4.1.3.1 in the 2006
  * edition), reference/standards.md §7; the register reuses welds.ts's rule for it.
  */
 import { eq } from 'drizzle-orm';

@@ -1,7 +1,7 @@
 /**
  * Recording welds: the module and POST/GET /api/joints/{id}/welds against a real SQLite file
  * with projects made by the test factory. Welder continuity is the six-month rule of ASME BPVC Section IX QW-322.1
- * and AWS D1.1:2020 6.2.3.1 (clause number from memory; 4.1.3.1 in the 2006 edition), see
+ * and AWS D1.1:2020 6.2.3.1 (clause number unconfirmed; 4.1.3.1 in the 2006 edition), see
  * reference/standards.md §7.
  */
 import { and, eq } from 'drizzle-orm';

@@ -67,6 +67,8 @@ export function deriveCriteriaSet(
 			stages: override.stages ?? previous?.stages
 		};
 		if (override.note) limit.note = override.note;
+		// Where the base's check applies only past a reading (a fillet over a root opening), so does the project's.
+		if (previous?.appliesOver) limit.appliesOver = previous.appliesOver;
 		if (!limit.kinds) delete limit.kinds;
 		if (!limit.stages) delete limit.stages;
 		limits[checkId] = limit;

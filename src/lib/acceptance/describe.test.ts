@@ -9,14 +9,15 @@ import { exprWords, lengthWords, limitUnit, ruleWords, typedValue } from './desc
 const set = (id: string) => getCriteriaSet(id) as CriteriaSet;
 
 describe('ruleWords', () => {
-	// ASME B31.3-2018 Table 341.3.2 criterion H: ≤ 1 mm (1/32 in) and ≤ Tw/4, the lesser governing.
+	// ASME B31.3-2018 Table 341.3.2 criterion H: ≤ 1 mm (1/32 in) and ≤ Tw/4, the lesser
+	// governing; longitudinal groove welds take criterion A (none).
 	it('reads B31.3 normal undercut in the project column', () => {
 		const rule = set('asme-b31.3-normal').limits['undercut.depth']!.rule;
 		expect(ruleWords(rule, 'mm', 'imperial')).toBe(
-			'at most the lesser of 1/32 in and 0.25 × thickness at any length'
+			'at most (the lesser of 1/32 in and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 		expect(ruleWords(rule, 'mm', 'metric')).toBe(
-			'at most the lesser of 1 mm and 0.25 × thickness at any length'
+			'at most (the lesser of 1 mm and 0.25 × thickness, none for longitudinal seams) at any length'
 		);
 	});
 
@@ -25,7 +26,7 @@ describe('ruleWords', () => {
 	it('reads a banded limit with its length allowance', () => {
 		const rule = set('aws-d1.1-static').limits['undercut.depth']!.rule;
 		expect(ruleWords(rule, 'mm', 'imperial')).toBe(
-			'at most (by thickness, under 1 in: 1/32 in; over that: 1/16 in) at any length; deeper, up to 1/16 in, over at most 2 in in all'
+			'at most (by thickness, under 1 in: 1/32 in; over that: 1/16 in) at any length; deeper, up to 1/16 in, over at most 2 in in any 12 in'
 		);
 	});
 
@@ -58,7 +59,7 @@ describe('ruleWords', () => {
 	it('reads a note inside a stepped limit as an aside, without a stray full stop', () => {
 		const rule = set('iso-5817-c').limits['fillet.throat.min']!.rule;
 		expect(ruleWords(rule, 'mm', 'metric')).toMatch(
-			/^at most \(by thickness, up to 3 mm: \(no fixed number: Insufficient throat on walls of 3 mm and less was not checked\); over that: /
+			/^at most \(by thickness, up to 3 mm: \(no fixed number: Insufficient throat on walls of 3 mm and less is not built in\); over that: /
 		);
 		for (const id of ['aws-d1.1-static', 'asme-b31.3-normal', 'api-1104', 'iso-5817-b']) {
 			for (const [check, limit] of Object.entries(set(id).limits)) {
@@ -103,5 +104,24 @@ describe('lengths and typed values', () => {
 		expect(limitUnit('crack')).toBe('flag');
 		expect(limitUnit('bevelAngle.range')).toBe('deg');
 		expect(limitUnit('undercut.depth')).toBe('mm');
+		expect(limitUnit('pore.count')).toBe('count');
+		expect(limitUnit('surfaceFinish.max')).toBe('um');
+	});
+
+	// ASME B31.3-2018 Table 341.3.2 criterion J: 500 µin Ra per ASME B46.1 (12.5 µm in SI).
+	it('read a roughness limit in the project column', () => {
+		const rule = set('asme-b31.3-severe-cyclic').limits['surfaceFinish.max']!.rule;
+		expect(ruleWords(rule, 'um', 'imperial')).toBe('at most 500 µin Ra (12.7 µm)');
+		expect(ruleWords(rule, 'um', 'metric')).toBe('at most 12.5 µm Ra');
+		expect(typedValue(12.5, 'um', 'metric')).toBe('12.5 µm');
+		expect(typedValue(2, 'count', 'metric')).toBe('2');
+	});
+
+	// B31.3-2018 Table 341.3.2 criteria B and C: cumulative length ≤ 38 mm (1.5 in) in any 150 mm (6 in).
+	it('read an accumulated length with the stretch it counts over', () => {
+		const rule = set('asme-b31.3-normal').limits['penetration.length']!.rule;
+		expect(ruleWords(rule, 'mm', 'metric')).toBe(
+			'at most (38 mm, none for longitudinal seams) in any 150 mm'
+		);
 	});
 });

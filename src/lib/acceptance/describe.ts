@@ -8,13 +8,18 @@ import { quantity } from './limits';
 import type { Basis, CheckId, Condition, Expr, LengthAllowance, Quantity, Rule } from './types';
 
 /** What a check's limit is measured in. */
-export type LimitUnit = 'mm' | 'deg' | 'flag';
+export type LimitUnit = 'mm' | 'deg' | 'flag' | 'count' | 'um';
 
 const FLAG_CHECKS: readonly CheckId[] = ['crack', 'fusion', 'overlap', 'crater'];
+const OTHER_UNITS: Partial<Record<CheckId, LimitUnit>> = {
+	'bevelAngle.range': 'deg',
+	'pore.count': 'count',
+	'surfaceFinish.max': 'um'
+};
 
 export function limitUnit(check: CheckId): LimitUnit {
 	if (FLAG_CHECKS.includes(check)) return 'flag';
-	return check === 'bevelAngle.range' ? 'deg' : 'mm';
+	return OTHER_UNITS[check] ?? 'mm';
 }
 
 /** Checks whose limit may allow a deeper imperfection over a limited length (a banded rule). */
@@ -56,6 +61,8 @@ function inchFraction(sixtyFourths: number): string {
  */
 export function typedValue(value: number, unit: Exclude<LimitUnit, 'flag'>, units: UnitSystem) {
 	if (unit === 'deg') return `${trim(value, 3)}°`;
+	if (unit === 'count') return String(Math.round(value));
+	if (unit === 'um') return `${trim(value, 3)} µm`;
 	const sixtyFourths = (value / MM_PER_INCH) * 64;
 	if (units === 'imperial' && Math.abs(sixtyFourths - Math.round(sixtyFourths)) < 1e-9) {
 		return `${inchFraction(Math.round(sixtyFourths))} in`;
@@ -68,13 +75,22 @@ const BASIS_WORDS: Record<Basis, string> = {
 	faceWidth: 'face width',
 	requiredSize: 'required fillet size',
 	nominalThroat: 'nominal throat',
-	weldLength: 'weld length'
+	weldLength: 'weld length',
+	rootWidth: 'root bead width',
+	rootOpening: 'root opening',
+	diameter: 'outside diameter',
+	socketWall: 'socket wall or hub thickness'
 };
 
 function conditionWords(condition: Condition): string {
 	if ('kindIn' in condition) return `${condition.kindIn.join(' or ')} joints`;
 	if ('member' in condition) return `${condition.member} members`;
 	if ('stress' in condition) return `weld ${condition.stress} to the stress`;
+	if ('seam' in condition) {
+		return condition.seam === 'longitudinal' ? 'longitudinal seams' : 'girth welds';
+	}
+	if ('flange' in condition) return `${condition.flange} flanges`;
+	if ('given' in condition) return `where the ${BASIS_WORDS[condition.given]} is recorded`;
 	return `${condition.loading} loading`;
 }
 
@@ -91,7 +107,14 @@ interface Words {
 
 function quantityWords(value: Quantity, words: Words): string {
 	const number = quantity(value, words.units);
-	return words.unit === 'deg' ? `${trim(number, 2)}°` : lengthWords(number, words.units);
+	if (words.unit === 'deg') return `${trim(number, 2)}°`;
+	if (words.unit === 'count') return String(number);
+	if (words.unit === 'um') {
+		return words.units === 'imperial'
+			? `${trim(number / 0.0254, 0)} µin Ra (${trim(number, 2)} µm)`
+			: `${trim(number, 2)} µm Ra`;
+	}
+	return lengthWords(number, words.units);
 }
 
 /** An expression in words; `nested` wraps the ones that read as a list in parentheses. */
@@ -116,6 +139,10 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 		);
 	}
 	if ('when' in expr) {
+		// "None for longitudinal seams" reads better after the rule than before it.
+		if (typeof expr.then === 'number' && expr.then === 0) {
+			return wrap(`${exprWords(expr.otherwise, words)}, none for ${conditionWords(expr.when)}`);
+		}
 		return wrap(
 			`${exprWords(expr.then, words, true)} for ${conditionWords(expr.when)}, otherwise ${exprWords(expr.otherwise, words, true)}`
 		);
@@ -125,6 +152,9 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 	}
 	if ('greaterOf' in expr) {
 		return wrap(`the greater of ${list(expr.greaterOf.map((e) => exprWords(e, words, true)))}`);
+	}
+	if ('sumOf' in expr) {
+		return wrap(expr.sumOf.map((e) => exprWords(e, words, true)).join(' + '));
 	}
 	if ('either' in expr) {
 		return wrap(
@@ -136,19 +166,23 @@ export function exprWords(expr: Expr, words: Words, nested = false): string {
 	return nested ? wrap(open.replace(/\.$/, '')) : open;
 }
 
-function allowanceWords(allowance: LengthAllowance, units: UnitSystem): string {
+export function allowanceWords(allowance: LengthAllowance, units: UnitSystem): string {
 	if ('short' in allowance) return 'a short imperfection (25 mm in any 100 mm)';
-	return `${exprWords(allowance.max, { unit: 'mm', units })} in all`;
+	const max = exprWords(allowance.max, { unit: 'mm', units }, true);
+	return allowance.per === undefined
+		? `${max} in all`
+		: `${max} in any ${exprWords(allowance.per, { unit: 'mm', units }, true)}`;
 }
 
 /** A rule in words: "at most 1/32 in", "none; past that the inspector judges". */
 export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): string {
-	const words: Words = { unit: unit === 'deg' ? 'deg' : 'mm', units };
+	const words: Words = { unit: unit === 'flag' ? 'mm' : unit, units };
 	// A stepped or conditional value reads as one thing inside the sentence around it.
 	const value = (expr: Expr) =>
 		exprWords(expr, words, typeof expr === 'object' && ('by' in expr || 'when' in expr));
 	const open = (expr: Expr) => typeof expr === 'object' && 'open' in expr;
-	const judged = rule.type !== 'range' && 'beyond' in rule && rule.beyond === 'judge';
+	const judged =
+		(rule.type === 'absent' || rule.type === 'max') && 'beyond' in rule && rule.beyond === 'judge';
 	const beyond = judged ? '; past that the inspector judges' : '';
 	switch (rule.type) {
 		case 'absent':
@@ -179,5 +213,7 @@ export function ruleWords(rule: Rule, unit: LimitUnit, units: UnitSystem): strin
 				: '';
 			return `at most ${value(rule.max)} at any length${band}`;
 		}
+		case 'length':
+			return `at most ${allowanceWords(rule.allowance, units)}`;
 	}
 }

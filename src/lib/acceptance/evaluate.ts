@@ -1,5 +1,6 @@
 /**
- * evaluate(set, joint, stage, readings, options) gives the verdict for one inspection.
+ * evaluate(set, joint, stage, readings, options) gives the verdict for one inspection. With
+ * `options.wps`, a fit-up is also judged against the joint design of the joint's WPS.
  *
  * Unreadable input is returned, not thrown: `{ ok: false, errors: [{ field, message }] }` with
  * `field` a path such as `readings.rootOpening` or `joint.thickness`, which the API turns into
@@ -28,6 +29,8 @@ import {
 import {
 	mergeScenarios,
 	newTrace,
+	quantity,
+	TOLERANCE,
 	type LimitContext,
 	type ScenarioResult,
 	type Trace
@@ -35,6 +38,7 @@ import {
 import { oneOf, readJoint, readReadings, type ResolvedJoint } from './inputs';
 import { readingIds, type ReadingId } from './readings';
 import { describeLength, judgeRule, type RuleResult } from './rules';
+import { wpsErrors, wpsFindings, wpsSettles } from './wps';
 import {
 	checkIds,
 	stages,
@@ -56,7 +60,16 @@ function deriveValues(joint: ResolvedJoint, readings: ParsedReadings): Derived {
 	const derived: Derived = {};
 	// The joint's nominal thickness governs; the fit-up wall reading stands in when it is not recorded.
 	const thickness = joint.lengths.thickness ?? readings.wallThickness;
-	const { requiredSize, weldLength } = joint.lengths;
+	const { requiredSize, diameter, socketWall } = joint.lengths;
+	// A girth weld runs once round the pipe: its length is the circumference.
+	const girth =
+		joint.lengths.weldLength === undefined && joint.seam === 'circumferential' && diameter
+			? Math.PI * diameter
+			: undefined;
+	const weldLength = joint.lengths.weldLength ?? girth;
+	if (diameter !== undefined) derived.diameterMm = diameter;
+	if (socketWall !== undefined) derived.socketWallMm = socketWall;
+	if (girth !== undefined) derived.girthLengthMm = girth;
 	const { filletLeg1: leg1, filletLeg2: leg2, throat, misalignment } = readings;
 	if (thickness !== undefined) derived.thicknessMm = thickness;
 	if (requiredSize !== undefined) derived.requiredSizeMm = requiredSize;
@@ -87,12 +100,24 @@ function deriveValues(joint: ResolvedJoint, readings: ParsedReadings): Derived {
 const UNKNOWN_NAMES: Record<string, string> = {
 	thickness: 'the thickness',
 	faceWidth: 'the face width',
+	rootWidth: 'the root bead width',
+	rootOpening: 'the root opening',
 	requiredSize: 'the required fillet size',
 	nominalThroat: 'the required fillet size',
 	weldLength: 'the weld length',
+	diameter: 'the outside diameter',
+	socketWall: 'the socket wall or hub thickness',
 	member: 'the member (primary or secondary)',
 	stress: 'the stress direction',
-	loading: 'the loading'
+	loading: 'the loading',
+	seam: 'whether the weld is a plate or longitudinal seam or a girth weld'
+};
+
+/** Bases that are readings rather than joint data. */
+const READING_BASES: Partial<Record<string, ReadingId>> = {
+	faceWidth: 'faceWidth',
+	rootWidth: 'rootWidth',
+	rootOpening: 'rootOpening'
 };
 
 interface Collector {
@@ -103,9 +128,10 @@ interface Collector {
 
 function recordUnknown(trace: Trace, collector: Collector) {
 	for (const unknown of trace.unknown) {
-		if (unknown === 'faceWidth') collector.missing.add('faceWidth');
+		const reading = READING_BASES[unknown];
+		if (reading) collector.missing.add(reading);
 		else if (unknown === 'nominalThroat') collector.missingJoint.add('requiredSize');
-		else collector.missingJoint.add(unknown);
+		else collector.missingJoint.add(unknown as JointField);
 	}
 }
 
@@ -150,10 +176,10 @@ function addFinding(
 	const { limit, trace, units, collector } = run;
 	const merged = mergeScenarios(strict, lenient);
 	const notes = [limit.note, ...(strict?.notes ?? lenient?.notes ?? [])];
-	if (!merged.settled && strict && lenient) {
+	if ((!merged.settled || merged.uncertain) && strict && lenient) {
 		notes.push(uncertaintyNote(trace, strict, lenient, measurement.unit, units));
-		recordUnknown(trace, collector);
 	}
+	if (!merged.settled && strict && lenient) recordUnknown(trace, collector);
 	const finding: Finding = {
 		check,
 		reading: measurement.reading,
@@ -166,6 +192,8 @@ function addFinding(
 		note: notes.filter((note) => note).join(' ')
 	};
 	if (merged.range) finding.range = merged.range;
+	if (merged.bounds) finding.bounds = merged.bounds;
+	if (merged.band) finding.band = merged.band;
 	collector.findings.push(finding);
 }
 
@@ -179,10 +207,12 @@ function runCheck(
 ) {
 	const length = definition.length;
 	const lengthMm = length ? readings[length.reading] : undefined;
+	// The stretch the length read covers: the length part's, or the main reading's own.
+	const window = length ? length.window : definition.window;
 	const input = {
 		measured: measurement.value,
 		lengthMm,
-		lengthWindowMm: length?.windowMm ?? ctx.bases.weldLength,
+		lengthWindowMm: window === undefined ? undefined : quantity(window, ctx.units),
 		weldLengthMm: ctx.bases.weldLength
 	};
 	const strict: RuleResult = judgeRule(run.limit.rule, input, ctx, 'strict', run.trace);
@@ -213,6 +243,7 @@ export function evaluate(
 		errors.push({ field: 'stage', message: `Stage must be one of ${stages.join(', ')}` });
 	const resolved = readJoint(joint, units, errors);
 	const { parsed, read } = readReadings(readings, units, errors);
+	errors.push(...wpsErrors(options.wps));
 	if (errors.length > 0 || !resolved) return { ok: false, errors };
 
 	const derived = deriveValues(resolved, parsed);
@@ -222,12 +253,18 @@ export function evaluate(
 		loading: resolved.loading,
 		member: resolved.member,
 		stress: resolved.stress,
+		seam: resolved.seam,
+		flange: resolved.flange,
 		bases: {
 			thickness: derived.thicknessMm,
 			faceWidth: parsed.faceWidth,
+			rootWidth: parsed.rootWidth,
+			rootOpening: parsed.rootOpening,
 			requiredSize: derived.requiredSizeMm,
 			nominalThroat: derived.nominalThroatMm,
-			weldLength: derived.weldLengthMm
+			weldLength: derived.weldLengthMm,
+			diameter: derived.diameterMm,
+			socketWall: derived.socketWallMm
 		}
 	};
 	const checkContext: CheckContext = { readings: parsed, derived };
@@ -239,6 +276,14 @@ export function evaluate(
 		if (!limit) continue;
 		if (!(limit.kinds ?? definition.kinds).includes(resolved.kind)) continue;
 		if (!(limit.stages ?? definition.stages).includes(stage)) continue;
+		if (definition.when && !definition.when(resolved)) continue;
+		if (limit.appliesOver) {
+			const value = parsed[limit.appliesOver.reading];
+			if (value === undefined || value <= quantity(limit.appliesOver.value, units) + TOLERANCE)
+				continue;
+		}
+		// Where the WPS gives the number the code leaves to it, the WPS finding stands alone.
+		if (stage === 'fitup' && options.wps && wpsSettles(id, limit, options.wps)) continue;
 		for (const wanted of definition.wants(checkContext)) {
 			if (parsed[wanted] === undefined) collector.missing.add(wanted);
 		}
@@ -252,12 +297,21 @@ export function evaluate(
 		runCheck(id, definition, run, measurement, parsed, ctx);
 	}
 
+	if (stage === 'fitup' && options.wps) {
+		const wps = wpsFindings(options.wps, resolved.kind, parsed);
+		collector.findings.push(...wps.findings);
+		for (const id of wps.missing) collector.missing.add(id);
+	}
+
 	const { findings } = collector;
 	const missing = readingIds.filter((id) => collector.missing.has(id));
 	const jointFieldOrder: JointField[] = [
 		'thickness',
 		'requiredSize',
 		'weldLength',
+		'diameter',
+		'socketWall',
+		'seam',
 		'member',
 		'stress',
 		'loading'

@@ -31,7 +31,7 @@ describe('theoretical throat', () => {
 		expect(toInches(theoreticalThroat(inches(leg)))).toBeCloseTo(throat, 3);
 	});
 
-	// a·b/√(a²+b²) for unequal legs: geometry of the inscribed right triangle (from memory, derived).
+	// a·b/√(a²+b²) for unequal legs: geometry of the inscribed right triangle (unconfirmed, derived).
 	it('of unequal legs is a·b/√(a²+b²)', () => {
 		expect(toInches(theoreticalThroat(inches(1 / 4), inches(3 / 8)))).toBeCloseTo(0.208, 3);
 		expect(theoreticalThroat(6, 8)).toBeCloseTo(4.8, 9);

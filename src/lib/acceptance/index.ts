@@ -40,6 +40,7 @@ export function deriveCriteriaSet(base: CriteriaSet, changes: CriteriaSetChanges
 
 export { CriteriaSetError, type CriteriaSetChanges, type LimitOverride } from './derive';
 export {
+	allowanceWords,
 	exprWords,
 	hasLengthPart,
 	lengthWords,
@@ -49,6 +50,9 @@ export {
 	type LimitUnit
 } from './describe';
 export { evaluate } from './evaluate';
+export { evaluateIndications, indicationLabels } from './indications';
+export { jointInputOf, parseReading, type JointRecord, type ParsedReading } from './inputs';
+export { wpsClause } from './wps';
 export * from './geometry';
 export * from './readings';
 export * from './types';

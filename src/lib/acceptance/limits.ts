@@ -11,11 +11,14 @@ import type {
 	Basis,
 	Condition,
 	Expr,
+	FlangeType,
 	JointKind,
+	LimitBounds,
 	Loading,
 	Member,
 	Outcome,
 	Quantity,
+	Seam,
 	StressDirection
 } from './types';
 
@@ -31,12 +34,14 @@ export interface LimitContext {
 	loading?: Loading;
 	member?: Member;
 	stress?: StressDirection;
+	seam?: Seam;
+	flange?: FlangeType;
 	bases: Partial<Record<Basis, number>>;
 }
 
 /** What a resolution ran into: data it needed and did not have, and codes that leave it open. */
 export interface Trace {
-	unknown: Set<Basis | 'member' | 'stress' | 'loading'>;
+	unknown: Set<Basis | 'member' | 'stress' | 'loading' | 'seam'>;
 	reasons: Set<string>;
 }
 
@@ -53,12 +58,18 @@ function conditionHolds(
 	trace: Trace
 ): boolean | undefined {
 	if ('kindIn' in condition) return condition.kindIn.includes(ctx.kind);
+	if ('given' in condition) return ctx.bases[condition.given] !== undefined;
+	// Only the joints the flange rows are drawn for are flanges; no flange named means none.
+	if ('flange' in condition) return ctx.flange === condition.flange;
+	if ('seam' in condition && condition.unknown === 'no' && ctx.seam === undefined) return false;
 	const [field, wanted, actual] =
 		'member' in condition
 			? (['member', condition.member, ctx.member] as const)
 			: 'stress' in condition
 				? (['stress', condition.stress, ctx.stress] as const)
-				: (['loading', condition.loading, ctx.loading] as const);
+				: 'seam' in condition
+					? (['seam', condition.seam, ctx.seam] as const)
+					: (['loading', condition.loading, ctx.loading] as const);
 	if (actual === undefined) {
 		trace.unknown.add(field);
 		return undefined;
@@ -111,6 +122,8 @@ function resolve(expr: Expr, ctx: LimitContext, pick: Pick, trace: Trace): numbe
 		return Math.min(...expr.lesserOf.map((e) => resolve(e, ctx, pick, trace)));
 	if ('greaterOf' in expr)
 		return Math.max(...expr.greaterOf.map((e) => resolve(e, ctx, pick, trace)));
+	if ('sumOf' in expr)
+		return expr.sumOf.reduce<number>((sum, e) => sum + resolve(e, ctx, pick, trace), 0);
 	if ('either' in expr) {
 		trace.reasons.add(expr.because);
 		return extreme(
@@ -158,12 +171,17 @@ export interface ScenarioResult {
 	outcome: Outcome;
 	limit?: number;
 	range?: { min: number; max: number };
+	/** the deeper band of a banded limit */
+	band?: { upTo: number };
 	notes?: string[];
 }
 
 /**
  * Joins the strict and lenient answers. A finding missing from the strict scenario is one it
  * had already rejected; missing from the lenient one, one it did not need.
+ *
+ * Where the two limits differ (joint data is missing), no single limit is given, whatever the
+ * outcome: `bounds` holds both, so the limit shown depends on the joint, never on the reading.
  */
 export function mergeScenarios(
 	strict: ScenarioResult | undefined,
@@ -172,19 +190,43 @@ export function mergeScenarios(
 	outcome: Outcome;
 	limit: number | null;
 	range?: { min: number; max: number };
+	bounds?: LimitBounds;
+	band?: { upTo: number };
 	settled: boolean;
+	/** the two scenarios gave different limits */
+	uncertain: boolean;
 } {
 	const s = strict ?? { outcome: 'outside' };
 	const l = lenient ?? { outcome: 'within' };
-	if (s.outcome !== l.outcome) return { outcome: 'judge', limit: null, settled: false };
-	const preferred = s.outcome === 'outside' ? [l, s] : [s, l];
-	const chosen = preferred.find(
-		(result) => result.limit !== undefined && Number.isFinite(result.limit)
-	);
+	const outcome: Outcome = s.outcome === l.outcome ? s.outcome : 'judge';
+	const settled = s.outcome === l.outcome;
+	const finite = (value: number | undefined): value is number =>
+		value !== undefined && Number.isFinite(value);
+	const sameRange =
+		s.range === undefined ||
+		l.range === undefined ||
+		(Math.abs(s.range.min - l.range.min) <= TOLERANCE &&
+			Math.abs(s.range.max - l.range.max) <= TOLERANCE);
+	if (strict && lenient && finite(s.limit) && finite(l.limit)) {
+		if (Math.abs(s.limit - l.limit) <= TOLERANCE && sameRange) {
+			const band =
+				s.band && l.band && Math.abs(s.band.upTo - l.band.upTo) <= TOLERANCE ? s.band : undefined;
+			return { outcome, limit: s.limit, range: s.range, band, settled, uncertain: false };
+		}
+		const bounds = { min: Math.min(s.limit, l.limit), max: Math.max(s.limit, l.limit) };
+		return { outcome, limit: null, bounds, settled, uncertain: true };
+	}
+	if (strict && lenient && (finite(s.limit) || finite(l.limit))) {
+		// One scenario has no number (the code leaves it open there): nothing fixed to show.
+		return { outcome, limit: null, settled, uncertain: true };
+	}
+	const chosen = [s, l].find((result) => finite(result.limit));
 	return {
-		outcome: s.outcome,
+		outcome,
 		limit: chosen?.limit ?? null,
 		range: chosen?.range,
-		settled: true
+		band: chosen?.band,
+		settled,
+		uncertain: false
 	};
 }

@@ -7,7 +7,8 @@
 import type { PlausibleRange, QuantityKind, QuantitySpec } from '../units';
 
 export type { PlausibleRange, QuantityKind, QuantitySpec };
-export type ReadingKind = QuantityKind | 'boolean';
+/** A count of pores, or a surface roughness (µm Ra), besides lengths, angles and yes/no flags. */
+export type ReadingKind = QuantityKind | 'boolean' | 'count' | 'roughness';
 
 const INCH = 25.4;
 
@@ -26,11 +27,25 @@ export const lengthReadingIds = [
 	'undercutDepth',
 	'undercutLength',
 	'undersizeLength',
-	'porosity'
+	'porosity',
+	'porosityTotal',
+	'poreLargest',
+	'craterDepth',
+	'overlapSize',
+	'rootProtrusion',
+	'rootWidth',
+	'rootConcavity',
+	'rootConcavityLength',
+	'jointThickness',
+	'incompletePenetrationLength',
+	'incompletePenetrationDepth'
 ] as const;
 export const angleReadingIds = ['bevelAngle'] as const;
+export const countReadingIds = ['poreCount'] as const;
+export const roughnessReadingIds = ['surfaceRoughness'] as const;
 export const flagReadingIds = ['crack', 'overlap', 'craterUnfilled', 'incompleteFusion'] as const;
 
+/** In the order a form lists them: fit-up, the face of the weld, then its root. */
 export const readingIds = [
 	'rootOpening',
 	'bevelAngle',
@@ -48,6 +63,19 @@ export const readingIds = [
 	'undercutLength',
 	'undersizeLength',
 	'porosity',
+	'porosityTotal',
+	'poreLargest',
+	'poreCount',
+	'craterDepth',
+	'overlapSize',
+	'surfaceRoughness',
+	'rootProtrusion',
+	'rootWidth',
+	'rootConcavity',
+	'rootConcavityLength',
+	'jointThickness',
+	'incompletePenetrationLength',
+	'incompletePenetrationDepth',
 	'crack',
 	'overlap',
 	'craterUnfilled',
@@ -56,6 +84,8 @@ export const readingIds = [
 
 export type LengthReadingId = (typeof lengthReadingIds)[number];
 export type AngleReadingId = (typeof angleReadingIds)[number];
+export type CountReadingId = (typeof countReadingIds)[number];
+export type RoughnessReadingId = (typeof roughnessReadingIds)[number];
 export type FlagReadingId = (typeof flagReadingIds)[number];
 export type ReadingId = (typeof readingIds)[number];
 
@@ -70,6 +100,10 @@ export interface ReadingDefinition {
 const length = (label: string, plausible: PlausibleRange) =>
 	({ kind: 'length', label, plausible }) as const;
 
+/**
+ * Readings counted over a length say which: a length or a sum "in any 12 in (300 mm)" is
+ * the worst such stretch of the weld, and cannot be more than the stretch.
+ */
 export const readingDefinitions: Record<ReadingId, ReadingDefinition> = {
 	rootOpening: { id: 'rootOpening', ...length('Root opening', { min: 0, max: INCH }) },
 	bevelAngle: {
@@ -98,24 +132,94 @@ export const readingDefinitions: Record<ReadingId, ReadingDefinition> = {
 	concavity: { id: 'concavity', ...length('Concavity', { min: 0, max: INCH }) },
 	reinforcement: { id: 'reinforcement', ...length('Reinforcement', { min: 0, max: INCH }) },
 	undercutDepth: { id: 'undercutDepth', ...length('Undercut depth', { min: 0, max: INCH / 2 }) },
-	// The reading is the accumulated length within any 12 in (300 mm), so it cannot exceed the window.
 	undercutLength: {
 		id: 'undercutLength',
-		...length('Undercut length', { min: 0, max: 12 * INCH })
+		...length('Undercut — total length in any 12 in (300 mm)', { min: 0, max: 12 * INCH })
 	},
 	undersizeLength: {
 		id: 'undersizeLength',
-		...length('Undersize length', { min: 0, max: 100_000 })
+		...length('Undersize — total length along the weld', { min: 0, max: 100_000 })
 	},
-	// Sum of pore diameters within any 1 in (25 mm): more than the window is a slip.
-	porosity: { id: 'porosity', ...length('Porosity', { min: 0, max: INCH }) },
+	porosity: {
+		id: 'porosity',
+		...length('Porosity — sum of pore diameters in any 1 in (25 mm)', { min: 0, max: INCH })
+	},
+	porosityTotal: {
+		id: 'porosityTotal',
+		...length('Porosity — sum of pore diameters in any 12 in (300 mm)', {
+			min: 0,
+			max: 12 * INCH
+		})
+	},
+	poreLargest: { id: 'poreLargest', ...length('Largest pore (diameter)', { min: 0, max: INCH }) },
+	poreCount: {
+		id: 'poreCount',
+		kind: 'count',
+		label: 'Pores — number in any 4 in (100 mm)',
+		plausible: { min: 0, max: 1000 }
+	},
+	craterDepth: {
+		id: 'craterDepth',
+		...length('Crater — depth below the weld face', { min: 0, max: INCH })
+	},
+	overlapSize: {
+		id: 'overlapSize',
+		...length('Overlap — how far it lies over the parent metal', { min: 0, max: 2 * INCH })
+	},
+	surfaceRoughness: {
+		id: 'surfaceRoughness',
+		kind: 'roughness',
+		label: 'Surface roughness (Ra)',
+		plausible: { min: 0, max: 100 }
+	},
+	rootProtrusion: {
+		id: 'rootProtrusion',
+		...length('Root protrusion (internal)', { min: 0, max: INCH })
+	},
+	rootWidth: {
+		id: 'rootWidth',
+		...length('Root bead width', { min: 0, max: 4 * INCH, minExclusive: true })
+	},
+	rootConcavity: {
+		id: 'rootConcavity',
+		...length('Root concavity — depth', { min: 0, max: INCH })
+	},
+	rootConcavityLength: {
+		id: 'rootConcavityLength',
+		...length('Root concavity — total length in any 12 in (300 mm)', { min: 0, max: 12 * INCH })
+	},
+	jointThickness: {
+		id: 'jointThickness',
+		...length('Joint thickness at a concavity (reinforcement included)', {
+			min: 0,
+			max: 300,
+			minExclusive: true
+		})
+	},
+	incompletePenetrationLength: {
+		id: 'incompletePenetrationLength',
+		...length('Incomplete penetration — total length in any 12 in (300 mm)', {
+			min: 0,
+			max: 12 * INCH
+		})
+	},
+	incompletePenetrationDepth: {
+		id: 'incompletePenetrationDepth',
+		...length('Incomplete penetration — depth', { min: 0, max: 2 * INCH })
+	},
 	crack: { id: 'crack', kind: 'boolean', label: 'Crack' },
 	overlap: { id: 'overlap', kind: 'boolean', label: 'Overlap' },
 	craterUnfilled: { id: 'craterUnfilled', kind: 'boolean', label: 'Unfilled crater' },
 	incompleteFusion: { id: 'incompleteFusion', kind: 'boolean', label: 'Incomplete fusion' }
 };
 
-export const jointLengthFields = ['thickness', 'requiredSize', 'weldLength'] as const;
+export const jointLengthFields = [
+	'thickness',
+	'requiredSize',
+	'weldLength',
+	'diameter',
+	'socketWall'
+] as const;
 export type JointLengthField = (typeof jointLengthFields)[number];
 
 export const jointFieldSpecs: Record<JointLengthField, QuantitySpec> = {
@@ -133,6 +237,16 @@ export const jointFieldSpecs: Record<JointLengthField, QuantitySpec> = {
 		kind: 'length',
 		label: 'Weld length',
 		plausible: { min: 0, max: 100_000, minExclusive: true }
+	},
+	diameter: {
+		kind: 'length',
+		label: 'Outside diameter',
+		plausible: { min: 0, max: 10_000, minExclusive: true }
+	},
+	socketWall: {
+		kind: 'length',
+		label: 'Socket wall or hub thickness',
+		plausible: { min: 0, max: 300, minExclusive: true }
 	}
 };
 
@@ -145,6 +259,7 @@ export function quantitySpec(id: ReadingId | JointLengthField): QuantitySpec | u
 	if ((jointLengthFields as readonly string[]).includes(id))
 		return jointFieldSpecs[id as JointLengthField];
 	const reading = readingDefinitions[id as ReadingId];
-	if (!reading || reading.kind === 'boolean' || !reading.plausible) return undefined;
+	if (!reading || !reading.plausible) return undefined;
+	if (reading.kind !== 'length' && reading.kind !== 'angle') return undefined;
 	return { label: reading.label, kind: reading.kind, plausible: reading.plausible };
 }

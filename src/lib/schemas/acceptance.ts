@@ -1,10 +1,14 @@
 /** The evaluation request: one zod schema shared by the API route, the joint forms and the tests. */
 import { z } from 'zod';
 import {
+	flangeTypes,
+	indicationTypes,
 	jointKinds,
 	loadings,
 	members,
+	ndeMethodsJudged,
 	readingIds,
+	seams,
 	stages,
 	stressDirections
 } from '$lib/acceptance';
@@ -28,7 +32,14 @@ export const jointSchema = z.object(
 		weldLength: jointLength.optional(),
 		loading: choice(loadings, 'The loading').optional(),
 		member: choice(members, 'The member').optional(),
-		stress: choice(stressDirections, 'The stress direction').optional()
+		stress: choice(stressDirections, 'The stress direction').optional(),
+		/** a butt weld along a plate or seam, or round a pipe */
+		seam: choice(seams, 'The seam').optional(),
+		/** outside diameter of pipe: a butt joint with one is a girth weld of that circumference */
+		diameter: jointLength.optional(),
+		/** socket wall, or the hub of a flange, beside a socket or flange fillet */
+		socketWall: jointLength.optional(),
+		flange: choice(flangeTypes, 'The flange').optional()
 	},
 	{ error: 'Describe the joint, at least its kind: { "kind": "butt" }.' }
 );
@@ -65,10 +76,47 @@ export const evaluateRequestSchema = z.object({
 		.int({ error: 'projectId is the number of a project you are a member of.' })
 		.positive({ error: 'projectId is the number of a project you are a member of.' })
 		.optional(),
-	stage: choice(stages, 'The stage'),
+	stage: z.enum(stages, {
+		error: `The stage must be one of ${stages.join(', ')}, or nde with the indications of an RT or UT report.`
+	}),
 	units: choice(unitSystems, 'The units').default('imperial'),
 	joint: jointSchema,
 	readings: readingsSchema.default({})
 });
 
 export type EvaluateRequest = z.infer<typeof evaluateRequestSchema>;
+
+/** One indication of an RT or UT report; lengths as typed, or numbers of millimetres. */
+export const indicationSchema = z.object(
+	{
+		type: choice(indicationTypes, 'The indication type'),
+		length: jointLength.optional(),
+		width: jointLength.optional(),
+		depth: jointLength.optional(),
+		position: jointLength.optional(),
+		darker: z.boolean({ error: 'darker is true or false.' }).optional()
+	},
+	{ error: 'Describe each indication, at least its type: { "type": "incompletePenetration" }.' }
+);
+
+/** A report rarely lists more; more is a slip or an import gone wrong. */
+export const MAX_INDICATIONS = 200;
+
+export const indicationsSchema = z
+	.array(indicationSchema, { error: 'Give the indications as a list.' })
+	.max(MAX_INDICATIONS, { error: `At most ${MAX_INDICATIONS} indications in one result.` });
+
+/** The NDE evaluation request: the indications of an RT or UT report, judged by the set. */
+export const evaluateIndicationsSchema = z.object({
+	criteria: evaluateRequestSchema.shape.criteria,
+	projectId: evaluateRequestSchema.shape.projectId,
+	stage: z.literal('nde'),
+	method: z.enum(ndeMethodsJudged, {
+		error: `Indications are judged for ${ndeMethodsJudged.join(' and ')}; an MT or PT result is the report's.`
+	}),
+	units: choice(unitSystems, 'The units').default('imperial'),
+	joint: jointSchema,
+	indications: indicationsSchema.default([])
+});
+
+export type EvaluateIndicationsRequest = z.infer<typeof evaluateIndicationsSchema>;

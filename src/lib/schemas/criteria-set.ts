@@ -9,6 +9,7 @@ import {
 	checkIds,
 	hasLengthPart,
 	limitUnit,
+	parseReading,
 	type CheckId,
 	type LimitOverride,
 	type Rule
@@ -176,6 +177,12 @@ function ruleOf(check: CheckId, input: OverrideInput, field: string, units: Unit
 		const typed = input[part];
 		if (typed === undefined || typed === '') {
 			throw new Refused(`${field}.${part}`, `${check}: give the ${label}.`);
+		}
+		// A count of pores, or a roughness: read as the reading itself is read.
+		if ((unit === 'count' || unit === 'um') && part !== 'bandLength') {
+			const read = parseReading(unit === 'count' ? 'poreCount' : 'surfaceRoughness', typed, units);
+			if (!read.ok) throw new Refused(`${field}.${part}`, `${check} ${label}: ${read.message}`);
+			return read.value as number;
 		}
 		const spec: QuantitySpec =
 			unit === 'deg'

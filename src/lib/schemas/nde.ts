@@ -7,6 +7,7 @@ import { MAX_SEED } from '$lib/random';
 import { LOT_GROUPINGS, WELD_KINDS } from '$lib/nde/extent';
 import { NDE_METHODS, REASON_MIN_LENGTH } from '$lib/domain';
 import { note, text } from './text';
+import { indicationsSchema } from './acceptance';
 
 export const seedSchema = z
 	.number({ error: 'A seed is a whole number from 0 to 4294967295.' })
@@ -66,37 +67,10 @@ export const lotsQuerySchema = z.object({
 });
 export type LotsQuery = z.infer<typeof lotsQuerySchema>;
 
-/** Kinds of indication an RT or UT report names (ASME BPVC Section V and B31.3 Table 341.3.2 words). */
-export const INDICATION_TYPES = [
-	'crack',
-	'lack of fusion',
-	'incomplete penetration',
-	'slag inclusion',
-	'porosity',
-	'tungsten inclusion',
-	'internal undercut',
-	'root concavity',
-	'burn-through',
-	'other'
-] as const;
-
-export const indicationSchema = z.object({
-	type: z.enum(INDICATION_TYPES, {
-		error: `The indication type is one of: ${INDICATION_TYPES.join(', ')}.`
-	}),
-	/** As typed, e.g. `3/8`, `10 mm`; read in the project's units. */
-	length: text('The length', 30).default(''),
-	depth: text('The depth', 30).default(''),
-	location: text('The location', 60).default(''),
-	/** This indication is a reason for the reject. */
-	rejected: z.boolean().default(false)
-});
-export type IndicationInput = z.infer<typeof indicationSchema>;
-
 /** What an NDE result adds to an inspection record, beside the report number and technician. */
 export const ndeResultExtras = {
-	/** RT and UT only: the indications the report names. */
-	indications: z.array(indicationSchema).max(50, { error: 'At most 50 indications.' }).optional(),
+	/** RT and UT only: the indications the report names, as the acceptance engine reads them. */
+	indications: indicationsSchema.optional(),
 	/** On a reject: whose work the defect is in, by stamp; every welder of the weld when left out. */
 	welders: z
 		.array(text('A welder stamp', 24, { min: 1, minError: 'Give each welder stamp.' }))

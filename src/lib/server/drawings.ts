@@ -20,6 +20,7 @@ import * as storage from './storage';
 import * as audit from './audit';
 import { inspectPdf } from './pdf-inspect';
 import * as events from './events';
+import * as tiles from './tiles';
 import type { StagedUpload } from './staged-uploads';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import type { z } from 'zod';
@@ -386,7 +387,7 @@ export async function create(
 		}
 		const pdf = await checkedPdf(staged);
 		await storage.adopt(key, staged.tempPath);
-		return db.transaction((tx) => {
+		const stored = db.transaction((tx) => {
 			// Checked again here: another upload of the same number may have landed while this
 			// file was being read, and nothing else can run between this check and the insert.
 			if (
@@ -433,6 +434,8 @@ export async function create(
 			);
 			return { drawing, revisionId: created.id };
 		}, IMMEDIATE);
+		tiles.queue(stored.revisionId);
+		return stored;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
 		throw asConflict(error);
@@ -550,6 +553,7 @@ export async function addRevision(
 			);
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
 		}, IMMEDIATE);
+		tiles.queue(result.revisionId);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',

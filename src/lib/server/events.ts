@@ -14,7 +14,16 @@ export type ProjectEvent =
 			pinId: number;
 	  }
 	| { type: 'joint'; action: 'updated' | 'voided' | 'recorded'; jointId: number; drawingId: number }
-	| { type: 'revision'; action: 'added'; drawingId: number; revisionId: number };
+	| { type: 'revision'; action: 'added'; drawingId: number; revisionId: number }
+	/** How far the sheets of a revision are prepared as image tiles (src/lib/server/tiles.ts). */
+	| {
+			type: 'tiles';
+			drawingId: number;
+			revisionId: number;
+			total: number;
+			done: number;
+			failed: number;
+	  };
 
 interface Bus {
 	emitter: EventEmitter;

@@ -18,6 +18,7 @@ import { lockedJoint, refreshState, row, stateInput } from './joints';
 import {
 	evaluate,
 	getCriteriaSet,
+	jointInputOf,
 	type CriteriaSet,
 	type JointInput,
 	type ReadingsInput,
@@ -136,11 +137,7 @@ function recordsOf(tx: Tx, jointId: number) {
 }
 
 function jointInput(joint: Joint): JointInput {
-	return {
-		kind: joint.kind,
-		thickness: joint.thicknessMm ?? undefined,
-		requiredSize: joint.requiredSizeMm ?? undefined
-	};
+	return jointInputOf(joint);
 }
 
 /** What the record says of the verdict: the engine's, its findings, and the set it used. */

@@ -92,6 +92,10 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/projects/[projectId=id]/upload-permit': { GET: project('drawing.upload') },
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
+	// Tiles of a sheet: the same rule as the PDF they are drawn from.
+	'/api/revisions/[revisionId=id]/tiles': { GET: project('project.read') },
+	'/api/revisions/[revisionId=id]/tiles/[page]/[level]/[tile]': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/tiles': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/pins': {
 		GET: project('project.read'),
 		POST: project('pin.place')

@@ -2,6 +2,7 @@
 import { error } from '@sveltejs/kit';
 import * as criteriaSets from './criteria-sets';
 import * as drawings from './drawings';
+import * as tiles from './tiles';
 
 export function drawingOrThrow(projectId: number, drawingId: number) {
 	const drawing = drawings.get(projectId, drawingId);
@@ -21,10 +22,12 @@ export function sheetData(projectId: number, drawingId: number, revisionId?: num
 	const current = revisions.find((r) => r.status === 'current') ?? revisions[0];
 	if (!current) error(404, 'This drawing has no revision yet.');
 	const revision = revisionOrThrow(revisionId ?? current.id);
+	// A revision stored before tiles existed gets them from its first view.
+	tiles.ensure(revision.id);
 	return {
 		title: `${drawing.number} rev ${revision.label}`,
 		drawing,
-		revision,
+		revision: { ...revision, tiles: tiles.index(revision.id) },
 		revisions: revisions.map(({ id, label, status, issuedOn, uploadedAt }) => ({
 			id,
 			label,

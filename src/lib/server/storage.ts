@@ -46,6 +46,11 @@ export async function remove(key: string): Promise<void> {
 	await fsp.rm(pathOf(key), { force: true });
 }
 
+/** Remove a folder of files under a key (a sheet's tiles); gone already is fine. */
+export async function removeTree(key: string): Promise<void> {
+	await fsp.rm(pathOf(key), { recursive: true, force: true });
+}
+
 /** Remove a file outside the store (a temporary upload); gone already is fine. */
 export async function removePath(file: string): Promise<void> {
 	await fsp.rm(file, { force: true });

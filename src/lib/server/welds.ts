@@ -30,7 +30,7 @@ import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
 
 /**
  * ISO 4063 reference numbers, as metric WPSs name processes, to the AWS A3.0 / ASME IX letters
- * the qualification records use. From memory; 138 (metal-cored wire) counts as GMAW in both
+ * the qualification records use. Unconfirmed; 138 (metal-cored wire) counts as GMAW in both
  * codes' process lists.
  */
 const ISO_4063: Readonly<Record<string, string>> = {

@@ -31,8 +31,8 @@ describe('undercut — 9.7 (visual or mechanical measurement)', () => {
 		);
 	});
 
-	// 6 % of the wall is from memory; 1/64 in at any length [1: PHMSA interpretation].
-	it('accepts 1/64 in or 6 % of the wall at any length (6 % from memory)', () => {
+	// 6 % of the wall is unconfirmed; 1/64 in at any length [1: PHMSA interpretation].
+	it('accepts 1/64 in or 6 % of the wall at any length (6 % unconfirmed)', () => {
 		expect(depth(girth('1/2 in'), { undercutDepth: '1/64' })).toBe('within');
 		expect(
 			evaluated(API, girth('1/2 in'), 'visual', { undercutDepth: '1/64' }).missing
@@ -91,7 +91,7 @@ describe('undercut — 9.7 (visual or mechanical measurement)', () => {
 	});
 });
 
-describe('hi-lo — 7.2 [1; 1/8 in also from memory]', () => {
+describe('hi-lo — 7.2 [1; 1/8 in also unconfirmed]', () => {
 	const hiLo = checker(API, 'misalignment.max', 'fitup');
 
 	it('should not exceed 1/8 in (3 mm); more is for the inspector', () => {
@@ -121,13 +121,14 @@ describe('cap — 7.8.2 [1]', () => {
 	});
 });
 
-describe('other items (from memory)', () => {
-	// From memory: 9.3.9.2 individual pore ≤ 1/8 in or 25 % of the thinner wall.
-	it('passes pores that even summed are under the single-pore limit', () => {
-		const porosity = checker(API, 'porosity.max', 'visual');
-		expect(porosity(girth('1/4 in'), { porosity: '1/16' })).toBe('within');
-		expect(porosity(girth('1/4 in'), { porosity: '3/32' })).toBe('judge');
-		expect(porosity(girth('1 in'), { porosity: '1/8' })).toBe('within');
+describe('other items', () => {
+	// 9.3.9.2 (unconfirmed): no individual pore over 1/8 in or 25 % of the thinner wall.
+	it('limits the largest pore to 1/8 in or a quarter of the wall', () => {
+		const pore = checker(API, 'pore.largest', 'visual');
+		expect(pore(girth('1/4 in'), { poreLargest: '1/16' })).toBe('within');
+		expect(pore(girth('1/4 in'), { poreLargest: '5/64' })).toBe('outside');
+		expect(pore(girth('1 in'), { poreLargest: '1/8' })).toBe('within');
+		expect(pore(girth('1 in'), { poreLargest: '9/64' })).toBe('outside');
 	});
 
 	it('rejects a crack and leaves incomplete fusion, overlap and craters to the inspector', () => {
@@ -145,7 +146,7 @@ describe('other items (from memory)', () => {
 		).toBe('judge');
 	});
 
-	// Joint design is the qualified procedure's (clause number from memory).
+	// Joint design is the qualified procedure's (clause number unconfirmed).
 	it('leaves the groove to the procedure', () => {
 		expect(
 			finding(API, girth('1/2 in'), 'fitup', { rootOpening: '1/16' }, 'rootOpening.range')
@@ -153,5 +154,62 @@ describe('other items (from memory)', () => {
 			outcome: 'judge',
 			limit: null
 		});
+	});
+});
+
+describe('inadequate penetration seen from the root — 9.3.1 [2+]', () => {
+	const length = checker(API, 'penetration.length', 'visual');
+
+	// At most 1 in (25 mm) in any 12 in (300 mm) of weld.
+	it('allows 1 in in any 12 in of a long weld', () => {
+		expect(length(girth('1/2 in'), { incompletePenetrationLength: '1 in' })).toBe('within');
+		expect(length(girth('1/2 in'), { incompletePenetrationLength: '1-1/16 in' })).toBe('outside');
+		const metric = checker(API, 'penetration.length', 'visual', { units: 'metric' });
+		expect(metric(girth(12, 1000), { incompletePenetrationLength: 25 })).toBe('within');
+		expect(metric(girth(12, 1000), { incompletePenetrationLength: 26 })).toBe('outside');
+	});
+
+	// Welds under 12 in: at most 8 % of the weld length. NPS 2 (OD 2.375 in) runs 7.461 in round:
+	// 8 % is 0.597 in.
+	it('allows 8 % of a weld under 12 in, its length from the pipe diameter', () => {
+		const small: JointInput = { kind: 'butt', thickness: '0.154 in', diameter: '2.375 in' };
+		expect(length(small, { incompletePenetrationLength: '0.596 in' })).toBe('within');
+		expect(length(small, { incompletePenetrationLength: '0.6 in' })).toBe('outside');
+		expect(evaluated(API, small, 'visual', {}).derived.girthLengthMm).toBeCloseTo(
+			Math.PI * 2.375 * 25.4,
+			9
+		);
+	});
+
+	it('judges a length over 8 % of 12 in where the weld length is not known', () => {
+		expect(
+			length({ kind: 'butt', thickness: '1/4 in' }, { incompletePenetrationLength: '1/2' })
+		).toBe('judge');
+		expect(length({ kind: 'butt', thickness: '1/4 in' }, { incompletePenetrationLength: 0 })).toBe(
+			'within'
+		);
+	});
+});
+
+describe('internal concavity — 9.3.6 [1]', () => {
+	// Any length is acceptable while the joint is no thinner than the thinnest parent metal.
+	it('judges root concavity by the joint thickness', () => {
+		const thickness = checker(API, 'jointThickness.min', 'visual');
+		expect(
+			thickness(girth('0.250 in'), { rootConcavity: '1/32', jointThickness: '0.250 in' })
+		).toBe('within');
+		expect(
+			thickness(girth('0.250 in'), { rootConcavity: '1/32', jointThickness: '0.249 in' })
+		).toBe('outside');
+	});
+});
+
+describe('undercut length with the weld length from the pipe — 9.7 [1]', () => {
+	// NPS 6 (OD 6.625 in): 1/6 of 20.8 in is 3.47 in, so 2 in in any 12 in governs.
+	it('allows 2 in of undercut deeper than 1/64 in on an NPS 6 girth weld', () => {
+		const nps6: JointInput = { kind: 'butt', thickness: '0.280 in', diameter: '6.625 in' };
+		const length = checker(API, 'undercut.length', 'visual');
+		expect(length(nps6, { undercutDepth: '1/32', undercutLength: '2 in' })).toBe('within');
+		expect(length(nps6, { undercutDepth: '1/32', undercutLength: '2-1/16 in' })).toBe('outside');
 	});
 });

@@ -25,7 +25,7 @@ export const asmeB1625: CriteriaSet = {
 			rule: { type: 'range', min: beveledWall(35), max: beveledWall(40) },
 			clause: 'Figs. 2 and 3',
 			confidence: '2+',
-			note: '37.5° ± 2.5°. Over 22 mm (0.88 in) the bevel is compound: 37.5° up to 19 mm (0.75 in) above the root, then 10° ± 1°, which is not gauged here. B16.9 fitting catalogues square-cut up to 5 mm (carbon steel) or 4 mm (austenitic), not 3 mm. Figure numbers from memory.',
+			note: '37.5° ± 2.5°. Over 22 mm (0.88 in) the bevel is compound: 37.5° up to 19 mm (0.75 in) above the root, then 10° ± 1°, which is not gauged here. B16.9 fitting catalogues square-cut up to 5 mm (carbon steel) or 4 mm (austenitic), not 3 mm. Figure numbers unconfirmed.',
 			kinds: ['butt']
 		},
 		'rootFace.range': {
@@ -36,7 +36,7 @@ export const asmeB1625: CriteriaSet = {
 			},
 			clause: 'Figs. 2 and 3',
 			confidence: '2+',
-			note: 'Land 1.6 ± 0.8 mm (1/16 ± 1/32 in). Figure numbers from memory.',
+			note: 'Land 1.6 ± 0.8 mm (1/16 ± 1/32 in). Figure numbers unconfirmed.',
 			kinds: ['butt']
 		}
 	}

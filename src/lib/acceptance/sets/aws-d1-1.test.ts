@@ -1,8 +1,10 @@
 /**
  * AWS D1.1/D1.1M:2020, nontubular. Sources are those of reference/standards.md §1; each case
- * names its clause and how sure we are ([2+], [1], from memory).
+ * names its clause and how sure the sources are ([2+], [1], unconfirmed).
  */
 import { describe, expect, it } from 'vitest';
+import { evaluate } from '../evaluate';
+import { getCriteriaSet } from '../index';
 import { checker, evaluated, finding, inches } from '../testing';
 import type { JointInput } from '../types';
 
@@ -52,7 +54,7 @@ describe('undersized fillet welds — Table 8.1 (undersized welds) [2+]', () => 
 		expect(undersize(fillet('1'), legs('55/64'))).toBe('outside');
 	});
 
-	// Sizes between the table's rows take the smaller allowance (our conservative reading).
+	// Sizes between the table's rows take the smaller allowance (a conservative reading).
 	it('gives a 7/32 in callout the 1/16 in allowance of the row below', () => {
 		expect(undersize(fillet('7/32'), legs('5/32'))).toBe('within');
 		expect(undersize(fillet('7/32'), legs('9/64'))).toBe('outside');
@@ -238,7 +240,7 @@ describe('piping porosity, statically loaded — Table 8.1 (piping porosity) [2+
 	});
 });
 
-describe('fillet convexity — 7.23, Fig. 7.4 (older Fig. 5.4 steps) [1; 3/16 in step from memory]', () => {
+describe('fillet convexity — 7.23, Fig. 7.4 (older Fig. 5.4 steps) [1; 3/16 in step unconfirmed]', () => {
 	const convexity = checker(STATIC, 'fillet.convexity', 'visual');
 	const joint = fillet('1/4');
 
@@ -252,8 +254,8 @@ describe('fillet convexity — 7.23, Fig. 7.4 (older Fig. 5.4 steps) [1; 3/16 in
 		expect(convexity(joint, { convexity: '9/64', faceWidth: '63/64' })).toBe('outside');
 	});
 
-	// From memory: the 3/16 in step for W ≥ 1 in.
-	it('allows 3/16 in on a face 1 in wide and over (from memory)', () => {
+	// Unconfirmed: the 3/16 in step for W ≥ 1 in.
+	it('allows 3/16 in on a face 1 in wide and over (unconfirmed)', () => {
 		expect(convexity(joint, { convexity: '3/16', faceWidth: '1' })).toBe('within');
 		expect(convexity(joint, { convexity: '13/64', faceWidth: '1-1/4' })).toBe('outside');
 	});
@@ -266,7 +268,7 @@ describe('fillet convexity — 7.23, Fig. 7.4 (older Fig. 5.4 steps) [1; 3/16 in
 	});
 });
 
-describe('butt reinforcement — 7.23, Table 7.8 (from memory: 1/8 in)', () => {
+describe('butt reinforcement — 7.23, Table 7.8 (unconfirmed: 1/8 in)', () => {
 	const reinforcement = checker(STATIC, 'reinforcement.max', 'visual');
 
 	// Butt-weld reinforcement gauges read from 1/32 to 1/8 in (trade practice): the whole gauge is within.
@@ -276,14 +278,14 @@ describe('butt reinforcement — 7.23, Table 7.8 (from memory: 1/8 in)', () => {
 		);
 	});
 
-	it('rejects more than 1/8 in (from memory)', () => {
+	it('rejects more than 1/8 in (unconfirmed)', () => {
 		expect(reinforcement({ kind: 'butt', thickness: '1/2' }, { reinforcement: '9/64' })).toBe(
 			'outside'
 		);
 	});
 });
 
-describe('butt alignment — 7.21.3 [1; clause number from memory]', () => {
+describe('butt alignment — 7.21.3 [1; clause number unconfirmed]', () => {
 	const misalignment = checker(STATIC, 'misalignment.max', 'fitup');
 
 	// Check values: t = 1/2 in → 0.05 in; t = 2 in → 1/8 in governs.
@@ -314,14 +316,22 @@ describe('butt alignment — 7.21.3 [1; clause number from memory]', () => {
 });
 
 describe('fit-up', () => {
-	// From memory (7.21.1): fillet root opening ≤ 3/16 in, 5/16 in from 3 in of material.
-	it('limits the root opening of a fillet joint (from memory)', () => {
+	// 7.21.1 [2+: two copies of the clause text]: fillet root opening at most 3/16 in; parts 3 in
+	// and thicker that cannot be closed may open to 5/16 in with suitable backing.
+	it('limits the root opening of a fillet joint', () => {
 		const gap = checker(STATIC, 'fillet.gap', 'fitup');
 		expect(gap({ kind: 'fillet', thickness: '1/2' }, { rootOpening: '1/16' })).toBe('within');
 		expect(gap({ kind: 'fillet', thickness: '1/2' }, { rootOpening: '3/16' })).toBe('within');
-		expect(gap({ kind: 'fillet', thickness: '1/2' }, { rootOpening: '7/32' })).toBe('outside');
-		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '5/16' })).toBe('within');
-		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '11/32' })).toBe('outside');
+		expect(gap({ kind: 'fillet', thickness: '1/2' }, { rootOpening: '13/64' })).toBe('outside');
+		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '3/16' })).toBe('within');
+		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '1/4' })).toBe('judge');
+		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '5/16' })).toBe('judge');
+		expect(gap({ kind: 'fillet', thickness: '3 in' }, { rootOpening: '21/64' })).toBe('outside');
+		const metric = checker(STATIC, 'fillet.gap', 'fitup', { units: 'metric' });
+		expect(metric({ kind: 'fillet', thickness: 12 }, { rootOpening: 5 })).toBe('within');
+		expect(metric({ kind: 'fillet', thickness: 12 }, { rootOpening: 5.1 })).toBe('outside');
+		expect(metric({ kind: 'fillet', thickness: 75 }, { rootOpening: 8 })).toBe('judge');
+		expect(metric({ kind: 'fillet', thickness: 75 }, { rootOpening: 8.1 })).toBe('outside');
 	});
 
 	// Fig. 5.1 [1]: groove tolerances are relative to the detail on the WPS, which the joint does not carry.
@@ -398,15 +408,41 @@ describe('cyclically loaded — Table 8.1 (cyclic column)', () => {
 		expect(result.missingJoint).toEqual(['stress']);
 	});
 
-	// ≤ 3/32 in pore diameter [1], ≤ 1 pore per 4 in [from memory]: a sum in one inch cannot show frequency.
-	it('judges small pores and rejects a sum over 3/32 in in one inch of fillet', () => {
-		const porosity = checker(CYCLIC, 'porosity.max', 'visual');
-		expect(porosity(fillet('1/4'), { porosity: 0 })).toBe('within');
-		expect(porosity(fillet('1/4'), { porosity: '1/16' })).toBe('judge');
-		expect(porosity(fillet('1/4'), { porosity: '3/32' })).toBe('judge');
-		expect(porosity(fillet('1/4'), { porosity: '1/8' })).toBe('outside');
-		// From memory: none in CJP butt joints transverse to tensile stress.
-		expect(porosity(primaryTransverse, { porosity: '1/32' })).toBe('outside');
+	// Table 8.1 (8)(B), (8)(C) [1: one code-page copy of the 2000 Table 6.1, one source for 3/32 in]:
+	// fillets and non-CJP groove welds, at most one pore in any 4 in and none over 3/32 in;
+	// CJP butt joints transverse to tensile stress, none.
+	it('limits the largest pore to 3/32 in and the count to one in 4 in', () => {
+		const largest = checker(CYCLIC, 'pore.largest', 'visual');
+		const count = checker(CYCLIC, 'pore.count', 'visual');
+		expect(largest(fillet('1/4'), { poreLargest: '3/32', poreCount: 1 })).toBe('within');
+		expect(largest(fillet('1/4'), { poreLargest: '7/64', poreCount: 1 })).toBe('outside');
+		expect(count(fillet('1/4'), { poreLargest: '1/16', poreCount: 1 })).toBe('within');
+		expect(count(fillet('1/4'), { poreLargest: '1/16', poreCount: 2 })).toBe('outside');
+		expect(largest(primaryTransverse, { poreLargest: '1/32', poreCount: 1 })).toBe('outside');
+		expect(count(primaryTransverse, { poreLargest: 0, poreCount: 0 })).toBe('within');
+		const metric = checker(CYCLIC, 'pore.largest', 'visual', { units: 'metric' });
+		const metricFillet: JointInput = { kind: 'fillet', thickness: 20, requiredSize: 6 };
+		expect(metric(metricFillet, { poreLargest: 2.5 })).toBe('within');
+		expect(metric(metricFillet, { poreLargest: 2.6 })).toBe('outside');
+	});
+
+	it('asks for the largest pore and the count once porosity is seen, not before', () => {
+		expect(evaluated(CYCLIC, fillet('1/4'), 'visual', { porosity: 0 }).missing).not.toContain(
+			'poreCount'
+		);
+		const seen = evaluated(CYCLIC, fillet('1/4'), 'visual', { porosity: '1/16' });
+		expect(seen.missing).toEqual(expect.arrayContaining(['poreLargest', 'poreCount']));
+		expect(seen.verdict).toBe('judge');
+	});
+
+	it('refuses a count that is no whole number', () => {
+		const result = evaluate(getCriteriaSet(CYCLIC)!, fillet('1/4'), 'visual', { poreCount: '1.5' });
+		expect(result.ok === false && result.errors).toEqual([
+			{
+				field: 'readings.poreCount',
+				message: 'Pores — number in any 4 in (100 mm): give a whole number, such as 0, 1 or 3'
+			}
+		]);
 	});
 
 	it('keeps the static undersize rule', () => {
@@ -417,6 +453,100 @@ describe('cyclically loaded — Table 8.1 (cyclic column)', () => {
 		expect(
 			undersize(fillet('5/16'), { filletLeg1: '11/64', filletLeg2: '3/16', undersizeLength: '2' })
 		).toBe('outside');
+	});
+});
+
+describe('limits shown for a joint, whatever the reading — Table 8.1 (7)(A) [2+]', () => {
+	const plate: JointInput = { kind: 'butt', thickness: '3/4' };
+	const depthFinding = (undercutDepth: string, more = {}) =>
+		finding(STATIC, plate, 'visual', { undercutDepth, ...more }, 'undercut.depth');
+
+	it('shows 1/32 in at any length and 1/16 in over a limited length, for any depth', () => {
+		for (const depth of ['1/64', '1/32', '3/64', '1/16', '5/64']) {
+			expect(depthFinding(depth)).toMatchObject({
+				limit: inches(1 / 32),
+				band: { upTo: inches(1 / 16) }
+			});
+		}
+	});
+
+	// A depth in the band is allowed only over 2 in in any 12 in: without the length it is not within.
+	it('does not call a depth in the band within until its length is read', () => {
+		expect(depthFinding('3/64').outcome).toBe('judge');
+		expect(depthFinding('3/64').note).toMatch(/Read its length/);
+		expect(depthFinding('3/64', { undercutLength: '2 in' }).outcome).toBe('within');
+		expect(depthFinding('1/32').outcome).toBe('within');
+		expect(depthFinding('5/64').outcome).toBe('outside');
+	});
+});
+
+describe('piping porosity in any 12 in, statically loaded — Table 8.1 (8)(A) [2+]', () => {
+	const total = checker(STATIC, 'porosity.total', 'visual');
+
+	// The sum of pore diameters is at most 3/4 in [20 mm] in any 12 in [300 mm] of weld.
+	it('allows 3/4 in of pores in any 12 in', () => {
+		expect(total(fillet('1/4'), { porosity: '1/4', porosityTotal: '3/4' })).toBe('within');
+		expect(total(fillet('1/4'), { porosity: '1/4', porosityTotal: '49/64' })).toBe('outside');
+		const metric = checker(STATIC, 'porosity.total', 'visual', { units: 'metric' });
+		const joint: JointInput = { kind: 'fillet', requiredSize: 6 };
+		expect(metric(joint, { porosity: 5, porosityTotal: 20 })).toBe('within');
+		expect(metric(joint, { porosity: 5, porosityTotal: 20.5 })).toBe('outside');
+	});
+
+	it('allows none in CJP butt joints transverse to tensile stress', () => {
+		const transverse: JointInput = { kind: 'butt', thickness: '1/2', stress: 'transverse' };
+		expect(total(transverse, { porosity: 0, porosityTotal: 0 })).toBe('within');
+		expect(total(transverse, { porosity: '1/32', porosityTotal: '1/32' })).toBe('outside');
+	});
+
+	it('asks for the 12 in sum only once an inch shows pores', () => {
+		expect(evaluated(STATIC, fillet('1/4'), 'visual', { porosity: 0 }).missing).not.toContain(
+			'porosityTotal'
+		);
+		expect(evaluated(STATIC, fillet('1/4'), 'visual', { porosity: '1/8' }).missing).toContain(
+			'porosityTotal'
+		);
+	});
+});
+
+describe('fillet over a root opening — 7.21.1 [2+: two copies of the clause text]', () => {
+	const gapLeg = checker(STATIC, 'fillet.gapLeg', 'visual');
+	const legs = (leg: string, rootOpening: string) => ({
+		filletLeg1: leg,
+		filletLeg2: leg,
+		rootOpening
+	});
+
+	// Over 1/16 in, the leg is increased by the root opening: 1/4 in + 1/8 in = 3/8 in.
+	it('wants the leg increased by a root opening over 1/16 in', () => {
+		expect(gapLeg(fillet('1/4'), legs('3/8', '1/8'))).toBe('within');
+		expect(gapLeg(fillet('1/4'), legs('23/64', '1/8'))).toBe('judge');
+		const f = finding(STATIC, fillet('1/4'), 'visual', legs('5/16', '3/32'), 'fillet.gapLeg');
+		expect(f.limit).toBeCloseTo(inches(1 / 4 + 3 / 32), 9);
+		expect(f.outcome).toBe('judge');
+		expect(f.note).toMatch(/effective throat/);
+	});
+
+	it('makes no such check at 1/16 in [2 mm] and under', () => {
+		for (const [gap, options] of [
+			['1/16', undefined],
+			['2 mm', { units: 'metric' as const }]
+		] as const) {
+			const joint = fillet('1/4 in', { thickness: '3/4 in', weldLength: '24 in' });
+			const result = evaluated(STATIC, joint, 'visual', legs('1/4 in', gap), options);
+			expect(result.findings.some((f) => f.check === 'fillet.gapLeg')).toBe(false);
+		}
+		const metric = evaluated(
+			STATIC,
+			{ kind: 'fillet', requiredSize: 6 },
+			'visual',
+			{ filletLeg1: 8.5, filletLeg2: 8.5, rootOpening: 2.5 },
+			{ units: 'metric' }
+		);
+		expect(metric.findings.find((f) => f.check === 'fillet.gapLeg')).toMatchObject({
+			limit: 8.5,
+			outcome: 'within'
+		});
 	});
 });
 

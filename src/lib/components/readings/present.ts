@@ -6,6 +6,7 @@
 import {
 	checkIds,
 	quantitySpec,
+	parseReading,
 	readingDefinitions,
 	readingIds,
 	type CheckId,
@@ -87,7 +88,8 @@ const lengthParts: Partial<Record<FindingCheckId, { check: FindingCheckId; readi
 	{
 		'undercut.depth': { check: 'undercut.length', reading: 'undercutLength' },
 		'fillet.undersize': { check: 'fillet.undersizeLength', reading: 'undersizeLength' },
-		'fillet.throat.min': { check: 'fillet.throat.length', reading: 'undersizeLength' }
+		'fillet.throat.min': { check: 'fillet.throat.length', reading: 'undersizeLength' },
+		'rootConcavity.depth': { check: 'rootConcavity.length', reading: 'rootConcavityLength' }
 	};
 
 export interface FieldVerdict {
@@ -142,7 +144,21 @@ const readsOf: Record<CheckId, readonly ReadingId[]> = {
 	'fillet.throat.max': ['filletLeg1', 'filletLeg2', 'throat'],
 	'fillet.convexity': ['convexity'],
 	'fillet.asymmetry': ['filletLeg1', 'filletLeg2'],
-	'socket.filletSize': ['filletLeg1', 'filletLeg2', 'throat']
+	'socket.filletSize': ['filletLeg1', 'filletLeg2', 'throat'],
+	'penetration.length': ['incompletePenetrationLength'],
+	'penetration.depth': ['incompletePenetrationDepth'],
+	'rootProtrusion.max': ['rootProtrusion'],
+	'rootConcavity.depth': ['rootConcavity', 'rootConcavityLength'],
+	'jointThickness.min': ['jointThickness', 'concavity', 'rootConcavity'],
+	'porosity.total': ['porosityTotal'],
+	'pore.largest': ['poreLargest'],
+	'pore.count': ['poreCount'],
+	'crater.depth': ['craterDepth'],
+	'overlap.size': ['overlapSize'],
+	'surfaceFinish.max': ['surfaceRoughness'],
+	'flange.filletSize': ['filletLeg1', 'filletLeg2', 'throat'],
+	'branch.coverFillet': ['filletLeg1', 'filletLeg2', 'throat'],
+	'fillet.gapLeg': ['rootOpening']
 };
 
 /** True when a limit's data scales with `basis` somewhere inside it. */
@@ -160,14 +176,43 @@ export interface StageReading {
 	judged: boolean;
 }
 
+/**
+ * Checks whose readings every inspection of the stage records, whether or not the set judges
+ * them: the fit-up, the profile, undercut, porosity and the flags. Readings only some codes
+ * judge (root side, pore counts, surface finish) are asked where the set makes the check.
+ */
+const RECORDED_ANYWAY: readonly CheckId[] = [
+	'rootOpening.range',
+	'fillet.gap',
+	'socket.gap',
+	'bevelAngle.range',
+	'rootFace.range',
+	'misalignment.max',
+	'crack',
+	'fusion',
+	'overlap',
+	'crater',
+	'undercut.depth',
+	'porosity.max',
+	'reinforcement.max',
+	'concavity.max',
+	'fillet.undersize',
+	'fillet.throat.min',
+	'fillet.throat.max',
+	'fillet.convexity',
+	'fillet.asymmetry',
+	'socket.filletSize'
+];
+
 /** Readings a limit scales with: they feed other checks and are never "recorded only". */
-const BASES: readonly ReadingId[] = ['wallThickness', 'faceWidth'];
+const BASES: readonly ReadingId[] = ['wallThickness', 'faceWidth', 'rootWidth'];
 
 /**
- * The readings a stage asks for on this joint kind: those any check reads on it (so a fit-up
- * is recorded in full even where the set leaves it to the WPS), the face width where one of
- * the set's limits scales with it, and at fit-up the wall thickness, which stands in for the
- * joint's thickness when that is not recorded.
+ * The readings a stage asks for on this joint kind: those the set's checks read, those every
+ * inspection records (so a fit-up is recorded in full even where the set leaves it to the
+ * WPS), the face or root bead width where one of the set's limits scales with it, and at
+ * fit-up the wall thickness, which stands in for the joint's thickness when that is not
+ * recorded.
  */
 export function readingsFor(set: CriteriaSet, kind: JointKind, stage: Stage): StageReading[] {
 	const asked = new Set<ReadingId>(stage === 'fitup' ? ['wallThickness'] : []);
@@ -180,20 +225,39 @@ export function readingsFor(set: CriteriaSet, kind: JointKind, stage: Stage): St
 		const inSet =
 			limit !== undefined &&
 			applies(limit.kinds ?? definition.kinds, limit.stages ?? definition.stages);
-		if (!inSet && !applies(definition.kinds, definition.stages)) continue;
+		if (
+			!inSet &&
+			!(RECORDED_ANYWAY.includes(check) && applies(definition.kinds, definition.stages))
+		)
+			continue;
 		for (const reading of readsOf[check]) {
 			asked.add(reading);
 			if (inSet) judged.add(reading);
 		}
 		if (inSet && scalesWith(limit.rule, 'faceWidth')) asked.add('faceWidth');
+		if (inSet && scalesWith(limit.rule, 'rootWidth')) asked.add('rootWidth');
 	}
 	return readingIds
 		.filter((id) => asked.has(id))
 		.map((id) => ({ id, judged: judged.has(id) || BASES.includes(id) }));
 }
 
+/** Readings taken from the root side of a weld, where the root can be seen. */
+export const ROOT_SIDE: readonly ReadingId[] = [
+	'rootProtrusion',
+	'rootWidth',
+	'rootConcavity',
+	'rootConcavityLength',
+	'jointThickness',
+	'incompletePenetrationLength',
+	'incompletePenetrationDepth'
+];
+
 /** The trade's name for a reading on this joint: a fillet's root opening is its gap. */
-export function readingLabel(id: ReadingId, kind?: JointKind): string {
+export function readingLabel(id: ReadingId, kind?: JointKind, stage?: Stage): string {
+	if (id === 'rootOpening' && kind === 'fillet' && stage === 'visual') {
+		return 'Root opening at fit-up (gap)';
+	}
 	if (id === 'rootOpening' && kind === 'fillet') return 'Root opening (gap)';
 	if (id === 'rootOpening' && kind === 'socket') return 'Gap before welding';
 	if (id === 'wallThickness' && kind === 'fillet') return 'Material thickness';
@@ -206,7 +270,10 @@ export const jointFieldLabels: Record<JointField, string> = {
 	weldLength: 'weld length',
 	member: 'member (primary or secondary)',
 	stress: 'stress direction',
-	loading: 'loading'
+	loading: 'loading',
+	seam: 'plate or longitudinal seam, or girth weld',
+	diameter: 'outside diameter',
+	socketWall: 'socket wall or hub thickness'
 };
 
 // ---- Gauge chips -----------------------------------------------------------------------------
@@ -257,14 +324,34 @@ const chipLabels: Partial<Record<ReadingId, { imperial: string[]; metric: string
 	concavity: DEPTHS,
 	reinforcement: DEPTHS,
 	undercutDepth: DEPTHS,
-	porosity: DEPTHS
+	porosity: DEPTHS,
+	poreLargest: DEPTHS,
+	craterDepth: DEPTHS,
+	rootProtrusion: DEPTHS,
+	rootConcavity: DEPTHS,
+	incompletePenetrationDepth: DEPTHS
 };
+
+/** Counts of pores, and roughness comparator grades (µin Ra, or µm Ra in a metric project). */
+const countChips = ['0', '1', '2', '3'];
+const roughnessChips = { imperial: ['125', '250', '500'], metric: ['3.2', '6.3', '12.5'] };
 
 const BEVELS = ['30', '35', '37.5', '40'];
 
 export function chipsFor(id: ReadingId, units: UnitSystem): GaugeChip[] {
 	if (id === 'bevelAngle') {
 		return BEVELS.map((label) => ({ label: `${label}°`, text: `${label}°`, value: Number(label) }));
+	}
+	const kind = readingDefinitions[id].kind;
+	if (kind === 'count' || kind === 'roughness') {
+		const labels = kind === 'count' ? countChips : roughnessChips[units];
+		const suffix = kind === 'count' ? '' : units === 'imperial' ? ' µin' : ' µm';
+		return labels.flatMap((label) => {
+			const parsed = parseReading(id, `${label}${suffix}`, units);
+			return parsed.ok && typeof parsed.value === 'number'
+				? [{ label, text: `${label}${suffix}`, value: parsed.value }]
+				: [];
+		});
 	}
 	const labels = chipLabels[id]?.[units] ?? [];
 	const suffix = units === 'imperial' ? ' in' : ' mm';
@@ -276,21 +363,49 @@ export function chipsFor(id: ReadingId, units: UnitSystem): GaugeChip[] {
 
 // ---- Typed values and findings in words ------------------------------------------------------
 
-/** What a length or angle field reads as it is typed; undefined while blank. */
+/** A field's value as read: mm, degrees, a count, or µm Ra. */
+export type TypedReading =
+	{ ok: true; value: number; unit: 'mm' | 'deg' | 'count' | 'um' } | { ok: false; message: string };
+
+/** What a field reads as it is typed; undefined while blank. */
 export function parseTyped(
 	id: ReadingId,
 	text: string,
 	units: UnitSystem
-): ParsedQuantity | undefined {
+): TypedReading | undefined {
 	if (text.trim() === '') return undefined;
-	return readingDefinitions[id].kind === 'angle'
-		? parseAngle(text, { reading: quantitySpec(id) })
-		: parseLength(text, { units, reading: quantitySpec(id) });
+	const kind = readingDefinitions[id].kind;
+	if (kind === 'angle' || kind === 'length') {
+		const parsed: ParsedQuantity =
+			kind === 'angle'
+				? parseAngle(text, { reading: quantitySpec(id) })
+				: parseLength(text, { units, reading: quantitySpec(id) });
+		return parsed.ok
+			? { ok: true, value: parsed.value, unit: parsed.unit === 'deg' ? 'deg' : 'mm' }
+			: parsed;
+	}
+	const parsed = parseReading(id, text, units);
+	if (!parsed.ok) return parsed;
+	return typeof parsed.value === 'number' && (parsed.unit === 'count' || parsed.unit === 'um')
+		? { ok: true, value: parsed.value, unit: parsed.unit }
+		: { ok: false, message: `${readingDefinitions[id].label}: cannot read "${text}"` };
+}
+
+const MICROINCH_IN_UM = 0.0254;
+
+/** A roughness in µm as read in the project's column: `500 µin Ra (12.7 µm)` or `12.5 µm Ra`. */
+export function roughnessWords(um: number, units: UnitSystem): string {
+	const metric = `${Number(um.toFixed(2))} µm`;
+	return units === 'imperial'
+		? `${Math.round(um / MICROINCH_IN_UM)} µin Ra (${metric})`
+		: `${metric} Ra`;
 }
 
 /** The value in both systems, the project's first: `= 9.5 mm (3/8")` or `= 3/8 in (9.5 mm)`. */
-export function bothUnits(parsed: ParsedQuantity & { ok: true }, units: UnitSystem): string {
+export function bothUnits(parsed: TypedReading & { ok: true }, units: UnitSystem): string {
 	if (parsed.unit === 'deg') return `= ${formatAngle(parsed.value)}`;
+	if (parsed.unit === 'count') return `= ${parsed.value} ${parsed.value === 1 ? 'pore' : 'pores'}`;
+	if (parsed.unit === 'um') return `= ${roughnessWords(parsed.value, units)}`;
 	if (units === 'imperial') return `= ${formatBoth(parsed.value)}`;
 	return `= ${formatLength(parsed.value, 'metric')} (${formatLength(parsed.value, 'imperial')})`;
 }
@@ -305,19 +420,44 @@ export function formatMeasure(
 ): string {
 	if (unit === 'flag') return value > 0 ? 'present' : 'none';
 	if (unit === 'deg') return formatAngle(value);
+	if (unit === 'count') return String(value);
+	if (unit === 'um') return roughnessWords(value, units);
 	if (detail === 'both' && units === 'imperial') return formatBoth(value);
 	return formatLength(value, units);
 }
 
 /** Checks whose limit is a least value; every other single limit is a greatest one. */
-const MINIMUM_CHECKS: readonly FindingCheckId[] = ['socket.gap', 'socket.filletSize'];
+const MINIMUM_CHECKS: readonly FindingCheckId[] = [
+	'socket.gap',
+	'socket.filletSize',
+	'flange.filletSize',
+	'branch.coverFillet',
+	'jointThickness.min',
+	'fillet.gapLeg'
+];
 
-export function limitText(finding: Finding, units: UnitSystem, detail: Detail = 'short'): string {
+/**
+ * The limit in words. It depends on the joint, never on the value typed: where joint data is
+ * missing it shows both ends the limit could have; a banded limit shows its deeper band too.
+ */
+export function limitText(
+	finding: Pick<Finding, 'check' | 'unit' | 'limit' | 'range' | 'bounds' | 'band'>,
+	units: UnitSystem,
+	detail: Detail = 'short'
+): string {
 	const show = (value: number) => formatMeasure(value, finding.unit, units, detail);
+	const least = MINIMUM_CHECKS.includes(finding.check as FindingCheckId);
 	if (finding.unit === 'flag') return 'none';
 	if (finding.range) return `${show(finding.range.min)} to ${show(finding.range.max)}`;
+	if (finding.bounds) {
+		const [from, to] = least
+			? [finding.bounds.max, finding.bounds.min]
+			: [finding.bounds.min, finding.bounds.max];
+		return `${least ? 'at least' : 'at most'} ${show(from)} or ${show(to)}, by joint data not given`;
+	}
 	if (finding.limit === null) return 'no fixed limit';
-	return `${MINIMUM_CHECKS.includes(finding.check) ? 'at least' : 'at most'} ${show(finding.limit)}`;
+	const band = finding.band ? `; up to ${show(finding.band.upTo)} over a limited length` : '';
+	return `${least ? 'at least' : 'at most'} ${show(finding.limit)}${band}`;
 }
 
 export const checkLabels: Record<FindingCheckId, string> = {
@@ -343,13 +483,35 @@ export const checkLabels: Record<FindingCheckId, string> = {
 	'fillet.throat.max': 'Excess throat',
 	'fillet.convexity': 'Convexity',
 	'fillet.asymmetry': 'Leg asymmetry',
-	'socket.filletSize': 'Socket fillet size'
+	'socket.filletSize': 'Socket fillet size',
+	'penetration.length': 'Incomplete penetration length',
+	'penetration.depth': 'Incomplete penetration depth',
+	'rootProtrusion.max': 'Root protrusion',
+	'rootConcavity.depth': 'Root concavity',
+	'rootConcavity.length': 'Root concavity length',
+	'jointThickness.min': 'Joint thickness',
+	'porosity.total': 'Porosity in 12 in (300 mm)',
+	'pore.largest': 'Largest pore',
+	'pore.count': 'Pores in 4 in (100 mm)',
+	'crater.depth': 'Crater depth',
+	'overlap.size': 'Overlap',
+	'surfaceFinish.max': 'Surface finish',
+	'flange.filletSize': 'Flange fillet size',
+	'branch.coverFillet': 'Branch cover fillet throat',
+	'fillet.gapLeg': 'Fillet leg over the root opening',
+	'wps.rootOpening': 'Root opening to the WPS',
+	'wps.rootFace': 'Root face to the WPS',
+	'wps.bevelAngle': 'Bevel angle to the WPS'
 };
 
+/**
+ * What the inspector reads beside a limit's clause. A limit resting on one source, or on none
+ * found, keeps its tag in the data; on screen it is one plain word.
+ */
 export const confidenceWords: Record<Finding['confidence'], string | undefined> = {
 	'2+': undefined,
-	'1': 'one source',
-	mem: 'from memory',
+	'1': 'unconfirmed — check the clause',
+	mem: 'unconfirmed — check the clause',
 	practice: 'common practice',
 	project: 'project limit'
 };

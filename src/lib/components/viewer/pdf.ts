@@ -1,17 +1,23 @@
 /**
  * pdf.js on the client. The main build touches DOMMatrix as soon as it is imported, so it is
- * only ever imported dynamically, in the browser, from here.
+ * only ever imported dynamically, in the browser, from here. It is loaded from its own file
+ * (rather than a bundle chunk) so a page can name it in its HTML and the browser fetches and
+ * compiles it while the page's own script is still loading.
  */
 import type { PDFDocumentLoadingTask, PDFDocumentProxy } from 'pdfjs-dist';
+import pdfjsUrl from 'pdfjs-dist/build/pdf.min.mjs?url';
 import workerUrl from 'pdfjs-dist/build/pdf.worker.min.mjs?url';
 
 export type Pdfjs = typeof import('pdfjs-dist');
 export type { PDFDocumentProxy, PDFPageProxy, PageViewport, RenderTask } from 'pdfjs-dist';
 
+/** For `<link rel="modulepreload">` in a page's head. */
+export const PDFJS_URL = pdfjsUrl;
+
 let loading: Promise<Pdfjs> | null = null;
 
 export function loadPdfjs(): Promise<Pdfjs> {
-	loading ??= import('pdfjs-dist').then((pdfjs) => {
+	loading ??= (import(/* @vite-ignore */ pdfjsUrl) as Promise<Pdfjs>).then((pdfjs) => {
 		pdfjs.GlobalWorkerOptions.workerSrc = workerUrl;
 		return pdfjs;
 	});

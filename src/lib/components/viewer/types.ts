@@ -1,4 +1,5 @@
 /** The shapes the viewer pages receive from their loads, and the viewer's contract with pins. */
+import type { SheetTiles } from '$lib/sheet-tiles';
 
 export type RevisionStatus = 'current' | 'superseded';
 
@@ -20,7 +21,11 @@ export interface ViewerRevision {
 	pageCount: number;
 	sha256: string;
 	fileUrl: string;
+	/** Size of the PDF, when known. */
+	bytes?: number;
 	pages: SheetBox[];
+	/** Each sheet's tile pyramid, where the server has made one (queued ones too). */
+	tiles?: SheetTiles[];
 }
 
 export interface RevisionChoice {

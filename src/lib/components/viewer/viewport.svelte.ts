@@ -43,6 +43,11 @@ export class SheetViewport {
 	/** Where an animated zoom is heading, so quick presses add up instead of cutting it short. */
 	#zoomTarget: number | null = null;
 
+	/** The scale at which the whole sheet fits the frame (0 until both are known). */
+	get fitPageScale(): number {
+		return this.#fitScale('page');
+	}
+
 	get minScale(): number {
 		const page = this.#fitScale('page');
 		return page > 0 ? Math.min(page * 0.5, 1) : 0.05;

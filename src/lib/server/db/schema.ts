@@ -32,10 +32,11 @@ import {
 	type WeldPass
 } from '../../domain';
 import type { ProjectRole } from '../../permissions';
-import type { CheckId, Finding } from '../../acceptance/types';
+import type { CheckId, Finding, IndicationType } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
 import type { LotGrouping, LotRule } from '../../nde/extent';
 import type { LotStage, SelectionReason } from '../../nde/sampling';
+import type { TileFormat, TileLevel, TileStatus } from '../../sheet-tiles';
 
 export type { ProjectRole };
 export {
@@ -59,7 +60,8 @@ export interface StoredReading {
 	id: string;
 	text: string;
 	value: number | boolean | null;
-	unit: 'mm' | 'deg' | 'bool' | null;
+	/** mm, degrees, yes/no, a count of pores, or µm Ra; null where the text could not be read */
+	unit: 'mm' | 'deg' | 'bool' | 'count' | 'um' | null;
 }
 
 /** One check of a verdict, exactly as the acceptance engine reported it. */
@@ -297,6 +299,40 @@ export const pages = sqliteTable(
 		rotation: integer('rotation').$type<0 | 90 | 180 | 270>().notNull().default(0)
 	},
 	(t) => [uniqueIndex('pages_revision_index').on(t.revisionId, t.pageIndex)]
+);
+
+/**
+ * A sheet rendered once on the server into a pyramid of image tiles (stored under the
+ * revision, see src/lib/server/tiles.ts), so the viewer shows it at once. `raster`: the sheet
+ * is a scan (one big image), which the viewer shows from its tiles alone.
+ */
+export const sheetTiles = sqliteTable(
+	'sheet_tiles',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		revisionId: integer('revision_id')
+			.notNull()
+			.references(() => revisions.id, { onDelete: 'cascade' }),
+		pageIndex: integer('page_index').notNull(),
+		status: text('status').$type<TileStatus>().notNull().default('queued'),
+		raster: integer('raster', { mode: 'boolean' }).notNull().default(false),
+		format: text('format').$type<TileFormat>(),
+		tileSize: integer('tile_size').notNull().default(512),
+		/** The sheet in sheet units (PDF points × the page's UserUnit, rotation applied). */
+		width: real('width'),
+		height: real('height'),
+		levels: text('levels', { mode: 'json' }).$type<TileLevel[]>().notNull().default([]),
+		tiles: integer('tiles').notNull().default(0),
+		bytes: integer('bytes').notNull().default(0),
+		renderMs: integer('render_ms'),
+		error: text('error'),
+		queuedAt: integer('queued_at').notNull().default(now),
+		finishedAt: integer('finished_at')
+	},
+	(t) => [
+		uniqueIndex('sheet_tiles_revision_page').on(t.revisionId, t.pageIndex),
+		index('sheet_tiles_status').on(t.status)
+	]
 );
 
 // Joints and their records ------------------------------------------------------------
@@ -764,7 +800,11 @@ export const ndeRequestItems = sqliteTable(
 	]
 );
 
-/** An indication an RT or UT report names, kept with the result for the acceptance engine. */
+/**
+ * An indication an RT or UT report names, kept with the result as the acceptance engine read
+ * it (src/lib/acceptance/indications.ts): its type, each dimension as typed and in mm, and
+ * whether the engine's judgement of it, by the joint's criteria set, was a reject.
+ */
 export const ndeIndications = sqliteTable(
 	'nde_indications',
 	{
@@ -772,13 +812,22 @@ export const ndeIndications = sqliteTable(
 		inspectionId: integer('inspection_id')
 			.notNull()
 			.references(() => inspections.id, { onDelete: 'cascade' }),
-		type: text('type').notNull(),
+		/** The engine's indication type, e.g. `incompletePenetration`. */
+		type: text('type').$type<IndicationType>().notNull(),
 		lengthText: text('length_text').notNull().default(''),
 		lengthMm: real('length_mm'),
+		widthText: text('width_text').notNull().default(''),
+		widthMm: real('width_mm'),
 		depthText: text('depth_text').notNull().default(''),
 		depthMm: real('depth_mm'),
-		/** Where on the weld, as the report puts it (clock position, distance from datum). */
-		location: text('location').notNull().default(''),
+		/** Start of the indication along the weld from the report's datum. */
+		positionText: text('position_text').notNull().default(''),
+		positionMm: real('position_mm'),
+		/** RT: the image darker than the thinnest adjacent parent metal. */
+		darker: integer('darker', { mode: 'boolean' }),
+		/** The engine's worst outcome on it (within, outside, judge); null where no limit reads it. */
+		outcome: text('outcome').$type<Verdict>(),
+		/** A reason for the reject: a finding on it (or on its kind together) the engine rejects. */
 		rejected: integer('rejected', { mode: 'boolean' }).notNull().default(false)
 	},
 	(t) => [index('nde_indications_inspection').on(t.inspectionId)]

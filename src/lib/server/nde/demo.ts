@@ -174,11 +174,9 @@ export function seedDemoLots(tx: Tx) {
 						{
 							indications: [
 								{
-									type: 'incomplete penetration',
+									type: 'incompletePenetration',
 									length: project.units === 'metric' ? '12 mm' : '1/2',
-									depth: '',
-									location: '3 o’clock',
-									rejected: true
+									position: project.units === 'metric' ? '150 mm' : '6'
 								}
 							],
 							welders: welder ? [welder.stamp] : undefined

@@ -15,7 +15,9 @@ import { effectiveInspections } from '$lib/joint-state';
 import { parseLength, type UnitSystem } from '$lib/units';
 import { mixSeed } from '$lib/random';
 import { callsForReject, FULL_LEVEL } from '$lib/nde/sampling';
-import type { IndicationInput } from '$lib/schemas/nde';
+import { evaluateIndications, jointInputOf, type IndicationInput } from '$lib/acceptance';
+import type { Verdict } from '$lib/domain';
+import * as criteriaSets from '../criteria-sets';
 import type { Inspection, Joint } from '../db/schema';
 import { jointsInfo } from './joints-info';
 import { lotData, stamps, type Tx } from './rows';
@@ -54,37 +56,83 @@ export interface ResultAnswer {
 
 const empty = (): ResultAnswer => ({ lot: null, tracers: [], short: [], none: null });
 
+/**
+ * The report's indications as the acceptance engine reads and judges them by the joint's
+ * criteria set (src/lib/acceptance/indications.ts): each kept with its dimensions as typed and
+ * in mm, the engine's outcome for it, and whether a reject finding falls on it (on it alone, or
+ * on its kind or all indications together). A dimension that cannot be read refuses the
+ * record; a joint the engine cannot judge (no set, no thickness) keeps the indications read
+ * one by one, unjudged.
+ */
 function storeIndications(
 	tx: Tx,
 	inspection: Inspection,
+	joint: Joint,
 	list: IndicationInput[],
 	units: UnitSystem
 ) {
+	const set = criteriaSets.resolve(joint.projectId, joint.criteriaSetId, undefined, tx);
+	const judged = set
+		? evaluateIndications(set, jointInputOf(joint), inspection.method!, list, { units })
+		: null;
+	if (judged && !judged.ok) {
+		const wrong = judged.errors.find((e) => e.field.startsWith('indications'));
+		if (wrong) throw new DomainError(`${wrong.message}.`, 400, wrong.field);
+	}
+	const outcomes = list.map(() => ({ outcome: null as Verdict | null, rejected: false }));
+	if (judged?.ok) {
+		for (const finding of judged.findings) {
+			const on =
+				finding.indication !== null
+					? [finding.indication]
+					: list.flatMap((item, n) =>
+							finding.type === null || item.type === finding.type ? [n] : []
+						);
+			for (const n of on) {
+				const now = outcomes[n];
+				if (!now) continue;
+				now.outcome = worse(now.outcome, finding.outcome);
+				if (finding.outcome === 'outside') now.rejected = true;
+			}
+		}
+	}
+	const mm = (value: string | number | undefined, n: number, dimension: string) => {
+		if (value === undefined || value === '') return null;
+		if (judged?.ok) return judged.indications[n]?.[`${dimension}Mm` as 'lengthMm'] ?? null;
+		const read = parseLength(value, { units });
+		if (!read.ok)
+			throw new DomainError(
+				`Indication ${n + 1}: cannot read the ${dimension} "${value}" (e.g. 3/8, 10 mm).`,
+				400,
+				`indications.${n}.${dimension}`
+			);
+		return read.value;
+	};
+	const typed = (value: string | number | undefined) => (value === undefined ? '' : String(value));
 	list.forEach((indication, n) => {
-		const read = (typed: string, field: string) => {
-			if (!typed) return null;
-			const parsed = parseLength(typed, { units });
-			if (!parsed.ok)
-				throw new DomainError(
-					`Indication ${n + 1}: cannot read the ${field} "${typed}" (e.g. 3/8, 10 mm).`,
-					400,
-					`indications.${n}.${field}`
-				);
-			return parsed.value;
-		};
 		tx.insert(schema.ndeIndications)
 			.values({
 				inspectionId: inspection.id,
 				type: indication.type,
-				lengthText: indication.length,
-				lengthMm: read(indication.length, 'length'),
-				depthText: indication.depth,
-				depthMm: read(indication.depth, 'depth'),
-				location: indication.location,
-				rejected: indication.rejected
+				lengthText: typed(indication.length),
+				lengthMm: mm(indication.length, n, 'length'),
+				widthText: typed(indication.width),
+				widthMm: mm(indication.width, n, 'width'),
+				depthText: typed(indication.depth),
+				depthMm: mm(indication.depth, n, 'depth'),
+				positionText: typed(indication.position),
+				positionMm: mm(indication.position, n, 'position'),
+				darker: indication.darker ?? null,
+				outcome: outcomes[n].outcome,
+				rejected: outcomes[n].rejected
 			})
 			.run();
 	});
+}
+
+const RANK: Record<Verdict, number> = { within: 0, judge: 1, outside: 2 };
+function worse(a: Verdict | null, b: Verdict): Verdict {
+	return a === null || RANK[b] > RANK[a] ? b : a;
 }
 
 /** The request items this result answers are closed, and each request once all of it is. */
@@ -166,7 +214,7 @@ export function afterResult(
 	if (inspection.stage !== 'nde' || !inspection.method) return empty();
 	const at = inspection.inspectedAt;
 	if (args.extras?.indications?.length)
-		storeIndications(tx, inspection, args.extras.indications, args.units);
+		storeIndications(tx, inspection, joint, args.extras.indications, args.units);
 
 	const selection = tx
 		.select()

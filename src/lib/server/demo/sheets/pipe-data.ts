@@ -1,5 +1,5 @@
 /**
- * Pipe sizes for the demo drawings: outside diameters and walls after ASME B36.10M (from memory), enough to
+ * Pipe sizes for the demo drawings: outside diameters and walls after ASME B36.10M (unconfirmed), enough to
  * print believable sizes and wall thicknesses on invented isometrics.
  */
 export interface PipeSize {

@@ -30,7 +30,7 @@ function euro(name: string, d: number, bf: number, tf: number, tw: number, kg: n
 	return { name, d, bf, tf, tw, kgPerM: kg, grade: 'S355JR' };
 }
 
-/** Nominal dimensions of common AISC W shapes and EN 10365 HE/IPE sections, from memory: good enough for invented drawings, not for design. */
+/** Nominal dimensions of common AISC W shapes and EN 10365 HE/IPE sections, unconfirmed: good enough for invented drawings, not for design. */
 export const SECTIONS: Record<Units, Section[]> = {
 	imperial: [
 		wide('W10x33', 9.73, 7.96, 0.435, 0.29, 33),

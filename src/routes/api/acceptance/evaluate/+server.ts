@@ -1,10 +1,16 @@
 import { json } from '@sveltejs/kit';
-import { acceptanceNotice, builtInCriteriaSetIds, evaluate, getCriteriaSet } from '$lib/acceptance';
+import {
+	acceptanceNotice,
+	builtInCriteriaSetIds,
+	evaluate,
+	evaluateIndications,
+	getCriteriaSet
+} from '$lib/acceptance';
 import { isMember } from '$lib/permissions';
 import { apiError, invalid } from '$lib/server/api';
 import { readJson } from '$lib/server/api-body';
 import * as criteriaSets from '$lib/server/criteria-sets';
-import { evaluateRequestSchema } from '$lib/schemas/acceptance';
+import { evaluateIndicationsSchema, evaluateRequestSchema } from '$lib/schemas/acceptance';
 import type { RequestHandler } from './$types';
 
 const EXAMPLE =
@@ -13,7 +19,8 @@ const EXAMPLE =
 /**
  * The verdict for one set of readings, from the same engine the joint card runs in the browser.
  * Nothing is stored: recording an inspection belongs to the inspection routes. With `projectId`
- * the criteria may also be one of that project's own sets (latest version).
+ * the criteria may also be one of that project's own sets (latest version). With stage `nde`,
+ * the indications of an RT or UT report are judged by the set's criteria for them.
  */
 export const POST: RequestHandler = async ({ request, locals }) => {
 	const read = await readJson(request);
@@ -25,10 +32,13 @@ export const POST: RequestHandler = async ({ request, locals }) => {
 	if (typeof body !== 'object' || body === null || Array.isArray(body)) {
 		return apiError(400, `The body must be a JSON object, such as ${EXAMPLE}.`, 'body');
 	}
-	const parsed = evaluateRequestSchema.safeParse(body);
+	const nde = 'stage' in body && body.stage === 'nde';
+	const parsed = nde
+		? evaluateIndicationsSchema.safeParse(body)
+		: evaluateRequestSchema.safeParse(body);
 	if (!parsed.success) return invalid(parsed);
 
-	const { criteria, projectId, stage, units, joint, readings } = parsed.data;
+	const { criteria, projectId, units, joint } = parsed.data;
 	if (projectId !== undefined && !(locals.user && isMember(locals.user, projectId))) {
 		return apiError(404, 'There is no such project, or you are not a member of it.', 'projectId');
 	}
@@ -45,6 +55,26 @@ export const POST: RequestHandler = async ({ request, locals }) => {
 			'criteria'
 		);
 	}
+	if (parsed.data.stage === 'nde') {
+		const { method, indications } = parsed.data;
+		const judged = evaluateIndications(set, joint, method, indications, { units });
+		if (!judged.ok) {
+			const [first] = judged.errors;
+			return apiError(400, first.message, first.field);
+		}
+		return json({
+			verdict: judged.verdict,
+			criteria: judged.criteria,
+			units,
+			method: judged.method,
+			findings: judged.findings,
+			missingJoint: judged.missingJoint,
+			indications: judged.indications,
+			...(judged.note ? { note: judged.note } : {}),
+			notice: acceptanceNotice
+		});
+	}
+	const { stage, readings } = parsed.data;
 	const result = evaluate(set, joint, stage, readings, { units });
 	if (!result.ok) {
 		const [first] = result.errors;

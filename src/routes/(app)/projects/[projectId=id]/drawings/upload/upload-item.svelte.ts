@@ -31,6 +31,8 @@ export class UploadItem {
 	progress = $state(0);
 	message = $state('');
 	resultHref = $state('');
+	/** The revision stored, once the upload has succeeded. */
+	revisionId = $state<number | null>(null);
 
 	constructor(
 		file: File,
@@ -100,6 +102,7 @@ export class UploadItem {
 				} | null;
 				if (xhr.status === 201 && body?.revision) {
 					this.status = 'done';
+					this.revisionId = body.revision.id;
 					const drawingId = body.drawing?.id ?? match!.id;
 					this.resultHref = `/projects/${projectId}/drawings/${drawingId}`;
 					this.message = match

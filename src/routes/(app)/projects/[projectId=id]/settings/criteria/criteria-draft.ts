@@ -10,7 +10,8 @@ import {
 	type CriteriaSet,
 	type Expr,
 	type LimitOverride,
-	type LimitUnit
+	type LimitUnit,
+	type Rule
 } from '$lib/acceptance';
 import { ruleTypesFor, type LimitOverrideInput, type RuleType } from '$lib/schemas/criteria-set';
 import type { UnitSystem } from '$lib/units';
@@ -41,9 +42,13 @@ function text(expr: Expr | undefined, unit: LimitUnit, units: UnitSystem): strin
 	return typedValue(expr, unit, units);
 }
 
+/** The editor's rule type for a limit: an accumulated length is edited as a greatest value. */
+const editedType = (type: Rule['type']): RuleType => (type === 'length' ? 'max' : type);
+
 /** A check as the base has it: unchanged, its rule type offered first when changed. */
 function unchanged(check: CheckId, base: CriteriaSet): LimitDraft {
-	const baseType = base.limits[check]?.rule.type;
+	const baseRule = base.limits[check]?.rule;
+	const baseType = baseRule && editedType(baseRule.type);
 	const types = ruleTypesFor(check);
 	return {
 		changed: false,
@@ -63,9 +68,14 @@ function fromOverride(check: CheckId, override: LimitOverride, units: UnitSystem
 	const unit = limitUnit(check);
 	const draft: LimitDraft = {
 		changed: true,
-		type: rule.type,
+		type: editedType(rule.type),
 		min: 'min' in rule ? text(rule.min, unit, units) : '',
-		max: 'max' in rule ? text(rule.max, unit, units) : '',
+		max:
+			'max' in rule
+				? text(rule.max, unit, units)
+				: rule.type === 'length' && 'max' in rule.allowance
+					? text(rule.allowance.max, unit, units)
+					: '',
 		bandUpTo: rule.type === 'banded' && rule.band ? text(rule.band.upTo, unit, units) : '',
 		bandLength:
 			rule.type === 'banded' && rule.band && 'max' in rule.band.length
