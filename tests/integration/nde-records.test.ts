@@ -207,6 +207,16 @@ describe('indications and the joint and length repair rate', () => {
 				rejected: false
 			})
 		]);
+		// The joint card reads them back with the engine's words for each.
+		expect(nde.forJoint(sample).indications).toEqual([
+			expect.objectContaining({
+				method: 'RT',
+				items: [
+					expect.objectContaining({ label: 'Crack', length: '1-1/4', outcome: 'outside' }),
+					expect.objectContaining({ width: '1/16', outcome: 'within', rejected: false })
+				]
+			})
+		]);
 		expect(() =>
 			inspect(sample, {
 				stage: 'fitup',

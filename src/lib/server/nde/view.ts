@@ -7,6 +7,7 @@ import { and, asc, count, desc, eq, inArray, isNull, like, or, type SQL } from '
 import { db, schema } from '../db';
 import { REASON_WORDS, STAGE_WORDS, summarizeLot, type LotSummary } from '$lib/nde/sampling';
 import { GROUPING_LABELS } from '$lib/nde/extent';
+import { indicationLabels } from '$lib/acceptance';
 import type { LotsQuery } from '$lib/schemas/nde';
 import { jointHref, jointsInfo, lotJointsInfo } from './joints-info';
 import { lotData, lotsData, type LotData, type Reader } from './rows';
@@ -276,6 +277,64 @@ export function detail(projectId: number, lotId: number) {
 
 export type LotDetail = NonNullable<ReturnType<typeof detail>>;
 
+/**
+ * The indications kept with the joint's RT and UT results in force (a corrected result gives
+ * way to its correction), as the acceptance engine read and judged them.
+ */
+function indicationsOf(jointId: number) {
+	const i = schema.inspections;
+	const x = schema.ndeIndications;
+	const results = db
+		.select({
+			id: i.id,
+			method: i.method,
+			reportNo: i.reportNo,
+			repairCycle: i.repairCycle,
+			decision: i.decision,
+			supersedesId: i.supersedesId
+		})
+		.from(i)
+		.where(and(eq(i.jointId, jointId), eq(i.stage, 'nde')))
+		.orderBy(asc(i.inspectedAt), asc(i.id))
+		.all();
+	const replaced = new Set(results.map((r) => r.supersedesId).filter((id) => id != null));
+	const standing = results.filter((r) => !replaced.has(r.id));
+	if (standing.length === 0) return [];
+	const items = db
+		.select()
+		.from(x)
+		.where(
+			inArray(
+				x.inspectionId,
+				standing.map((r) => r.id)
+			)
+		)
+		.orderBy(asc(x.id))
+		.all();
+	return standing
+		.map((r) => ({
+			inspectionId: r.id,
+			method: r.method,
+			reportNo: r.reportNo,
+			repairCycle: r.repairCycle,
+			decision: r.decision,
+			items: items
+				.filter((item) => item.inspectionId === r.id)
+				.map((item) => ({
+					type: item.type,
+					label: indicationLabels[item.type] ?? item.type,
+					length: item.lengthText,
+					width: item.widthText,
+					depth: item.depthText,
+					position: item.positionText,
+					darker: item.darker,
+					outcome: item.outcome,
+					rejected: item.rejected
+				}))
+		}))
+		.filter((r) => r.items.length > 0);
+}
+
 /** A joint's place in its NDE lots, for the joint card. */
 export function forJoint(jointId: number) {
 	const rows = db
@@ -373,6 +432,7 @@ export function forJoint(jointId: number) {
 				short
 			};
 		}),
-		other: other.map((s) => ({ method: s.method, reason: s.reason, lot: s.lot }))
+		other: other.map((s) => ({ method: s.method, reason: s.reason, lot: s.lot })),
+		indications: indicationsOf(jointId)
 	};
 }
