@@ -12,7 +12,7 @@ const LINE = `3"-E2E-${Date.now() % 100000}-A1A`;
 const headers = { origin: BASE_URL };
 
 interface Answer {
-	joint: { id: number; number: string; state: string };
+	joint: { id: number; number: string; state: string; version: number };
 }
 
 async function ok(response: Awaited<ReturnType<APIRequestContext['post']>>): Promise<Answer> {
@@ -53,10 +53,12 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 			})
 		);
 		joints.push(joint);
-		await ok(
+		// Every joint write carries the version it last saw.
+		const fitup = await ok(
 			await inspector.post(`/api/joints/${joint.id}/inspections`, {
 				headers,
 				data: {
+					version: joint.version,
 					stage: 'fitup',
 					readings: {
 						rootOpening: '1/8',
@@ -68,10 +70,14 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 				}
 			})
 		);
-		await ok(
+		const welded = await ok(
 			await foreman.post(`/api/joints/${joint.id}/welds`, {
 				headers,
-				data: { weldedOn: '2026-12-01', welders: { root: 'B14', fill: 'B14', cap: 'B14' } }
+				data: {
+					version: fitup.joint.version,
+					weldedOn: '2026-12-01',
+					welders: { root: 'B14', fill: 'B14', cap: 'B14' }
+				}
 			})
 		);
 		// ASME B31.3-2018 Table 341.3.2: undercut 1/32 in is within criterion H for Tw = 0.216 in.
@@ -79,6 +85,7 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 			await inspector.post(`/api/joints/${joint.id}/inspections`, {
 				headers,
 				data: {
+					version: welded.joint.version,
 					stage: 'visual',
 					readings: {
 						reinforcement: '1/16',
@@ -133,7 +140,8 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 	await signInInBrowser(sheet, 'inspector@tacksheet.test');
 	await expect(sheet).toHaveURL(/\/projects$/);
 	await sheet.goto(`/projects/1/drawings/${drawing.id}?page=1`);
-	await expect(sheet.locator('[data-rendered-page]')).toBeVisible({ timeout: 30_000 });
+	// The pins stand on the sheet (drawn from its tiles while pdf.js may still be loading).
+	await expect(sheet.locator('[data-testid=pin]').first()).toBeVisible({ timeout: 30_000 });
 	await sheet.getByTestId('weld-search').fill(selected.number);
 	await sheet.getByTestId('weld-search').press('Enter');
 	const card = sheet.getByTestId('joint-card');
