@@ -6,12 +6,12 @@ import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
-import { startBenchServer, timeRequests } from './server.js';
+import { benchPort, startBenchServer, timeRequests } from './server.js';
 import { signIn } from './session.js';
 import { seed as seedWeldLog } from './weld-log.js';
 
-// BENCH_PORT picks another port when several benches share a machine.
-const PORT = Number(process.env.BENCH_PORT ?? 4252);
+// BENCH_PORT moves every section's port when several benches share a machine.
+const PORT = benchPort(4);
 const ADMIN = { email: 'bench-admin@tacksheet.test', password: 'bench-password-0123' };
 const LOT_WELDS = 5000;
 const LOT_WELDERS = 40;

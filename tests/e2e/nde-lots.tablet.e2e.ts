@@ -158,6 +158,10 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 	await form.getByRole('button', { name: /^Reject/ }).click();
 	await form.getByRole('button', { name: 'Sign and record' }).click();
 	await expect(card.getByTestId('joint-state')).toHaveText('Repair');
+	// The indication is kept with the result, with the engine's outcome on it.
+	const kept = card.getByTestId('joint-nde-indications');
+	await expect(kept).toContainText('Crack: length 3/8');
+	await expect(kept).toContainText('outside the limit');
 
 	// Two tracers of B14's work in the same lot, named on the card and awaiting NDE on the sheet.
 	const tracers = card.getByTestId('joint-nde-tracers');
