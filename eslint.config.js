@@ -63,7 +63,12 @@ export default defineConfig(
 		languageOptions: {
 			parserOptions: {
 				projectService: {
-					allowDefaultProject: ['drizzle.config.ts', 'playwright.config.ts', 'scripts/*.ts']
+					allowDefaultProject: [
+						'drizzle.config.ts',
+						'playwright.config.ts',
+						'scripts/*.ts',
+						'scripts/bench/*.ts'
+					]
 				},
 				extraFileExtensions: ['.svelte'],
 				parser: ts.parser,

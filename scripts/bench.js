@@ -16,6 +16,7 @@ const sections = [
 	'weld-log',
 	'export',
 	'nde',
+	'suggestions',
 	'load'
 ];
 for (const name of sections) {

@@ -34,7 +34,7 @@ export function nextWeldNumber(used: readonly string[], prefix = ''): string {
  * Letters for joints inserted between two numbers; R, M and N mean repair, modified and
  * cut-out (common practice in contractors' weld numbering procedures).
  */
-const INSERT_LETTERS = 'ABCDEFGHJKLPQSTUVWXYZ'.split('');
+export const INSERT_LETTERS = 'ABCDEFGHJKLPQSTUVWXYZ'.split('');
 
 /**
  * The number for a joint inserted after `after`: `5` → `5A`, then `5B` … so existing numbers

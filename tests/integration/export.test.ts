@@ -14,11 +14,14 @@ import * as pinRows from '$lib/server/pins';
 import * as storage from '$lib/server/storage';
 import { config } from '$lib/server/config';
 import { resolve as resolveScope } from '$lib/server/export/scope';
-import { buildMarkedUpSet, coverPageCount } from '$lib/server/export/marked-up-set';
+import { buildMarkedUpSet, coverPageCount, planStamps } from '$lib/server/export/marked-up-set';
+import { embedFonts } from '$lib/server/export/pdf-marks';
+import { readSheetGeometry } from '$lib/server/sheet-text/reader';
+import fontkit from '@pdf-lib/fontkit';
 import { emptyCounts } from '$lib/state-counts';
 import { JOINT_STATES, STATE_LOOKS } from '$lib/joint-state';
 import { PDFDocument, degrees } from 'pdf-lib';
-import { STAMP } from '$lib/server/export/sheet-frame';
+import { STAMP, normaliseRotation, shownToUser } from '$lib/server/export/sheet-frame';
 import * as mail from '$lib/server/mail';
 import type { ExportRequest } from '$lib/schemas/export';
 import { damagedPdf, passwordProtectedPdf } from '../fixtures/pdfs';
@@ -183,10 +186,19 @@ describe('a turnover set of the demo project', () => {
 		const covers = coverPageCount(revisions.length);
 		const sheets = revisions.reduce((n, r) => n + r.sheets.length, 0);
 		expect(pdf.numPages).toBe(covers + sheets);
+		// The line work of every page, to find the leaders of stamps moved off their pins.
+		const lines = new Map<number, number[]>();
+		await readSheetGeometry(bytes, (page) => {
+			lines.set(page.pageIndex, page.segments);
+		});
+		const scratch = await PDFDocument.create();
+		scratch.registerFontkit(fontkit);
+		const fonts = await embedFonts(scratch);
 
 		let pageNo = covers;
 		let checked = 0;
 		let rotatedChecked = 0;
+		let ledChecked = 0;
 		for (const revision of revisions) {
 			const pins = pinRows.ofRevision(revision.id);
 			for (const sheet of revision.sheets) {
@@ -203,17 +215,23 @@ describe('a turnover set of the demo project', () => {
 				const words = items.map((i) => ('str' in i ? i.str.trim() : ''));
 				for (const state of JOINT_STATES)
 					expect(words, `key on page ${pageNo}`).toContain(STATE_LOOKS[state].label);
-				for (const pin of pins.filter((p) => p.pageIndex === sheet.pageIndex)) {
-					const [vx, vy] = viewport.convertToViewportPoint(pin.x, pin.y);
-					const want = { x: vx, y: vy - STAMP.labelBaseline };
+				const onSheet = pins.filter((p) => p.pageIndex === sheet.pageIndex);
+				const box = { ...sheet, rotation: normaliseRotation(page.rotate) };
+				const { size, placements } = planStamps(box, onSheet, fonts);
+				for (const [k, pin] of onSheet.entries()) {
+					// The number stands above its glyph: on the pin, or moved off it with a leader.
+					const placement = placements[k];
+					const glyph = shownToUser(box, placement.u, placement.v);
+					const [vx, vy] = viewport.convertToViewportPoint(glyph.x, glyph.y);
+					const want = { x: vx, y: vy - size.labelBaseline };
 					let best = Infinity;
 					let upright = false;
 					for (const item of items) {
 						if (!('str' in item) || item.str.trim() !== pin.label) continue;
 						const m = Util.transform(viewport.transform, item.transform);
-						const size = Math.hypot(m[2], m[3]);
-						if (Math.abs(size - STAMP.labelSize) > 0.05) continue;
-						const along = { x: m[0] / size, y: m[1] / size };
+						const itemSize = Math.hypot(m[2], m[3]);
+						if (Math.abs(itemSize - size.labelSize) > 0.05) continue;
+						const along = { x: m[0] / itemSize, y: m[1] / itemSize };
 						const centre = {
 							x: m[4] + (along.x * item.width) / 2,
 							y: m[5] + (along.y * item.width) / 2
@@ -226,6 +244,34 @@ describe('a turnover set of the demo project', () => {
 					}
 					expect(best, `${pin.label} on page ${pageNo}`).toBeLessThanOrEqual(2);
 					expect(upright, `${pin.label} upright on page ${pageNo}`).toBe(true);
+					if (placement.offset) {
+						// A line drawn from the stamp ends within 2 pt of the pin's own point.
+						const from = shownToUser(box, ...placement.leader!.from);
+						const segments = lines.get(pageNo - 1)!;
+						let led = false;
+						for (let i = 0; i + 3 < segments.length && !led; i += 4) {
+							const [ax, ay, bx, by] = segments.slice(i, i + 4);
+							for (const [near, far] of [
+								[
+									[ax, ay],
+									[bx, by]
+								],
+								[
+									[bx, by],
+									[ax, ay]
+								]
+							])
+								if (
+									Math.hypot(near[0] - pin.x, near[1] - pin.y) <= 2 &&
+									Math.hypot(far[0] - from.x, far[1] - from.y) <= 2
+								)
+									led = true;
+						}
+						expect(led, `leader of ${pin.label} on page ${pageNo}`).toBe(true);
+						ledChecked++;
+					} else {
+						expect(Math.hypot(glyph.x - pin.x, glyph.y - pin.y)).toBeLessThan(0.01);
+					}
 					checked++;
 					if (page.rotate === 90) rotatedChecked++;
 				}
@@ -233,6 +279,8 @@ describe('a turnover set of the demo project', () => {
 		}
 		expect(checked).toBeGreaterThan(20);
 		expect(rotatedChecked).toBeGreaterThan(0);
+		// The demo's crowded sheets put some stamps off their pins.
+		expect(ledChecked).toBeGreaterThan(0);
 		await pdf.destroy();
 	});
 
@@ -598,6 +646,77 @@ describe('stamping a sheet whose boxes do not start at zero', () => {
 			expect(f[5]).toBeLessThan(viewport.height);
 			expect(f[4] + footer.width).toBeLessThan(viewport.width);
 		}
+		await pdf.destroy();
+	});
+});
+
+describe('stamps on a large sheet', () => {
+	// ISO 216: A1 is 594 × 841 mm, twice A3's short side; stamps grow with it.
+	it('draws the weld numbers of an A1 sheet twice as large as on A3, and keeps close stamps apart', async () => {
+		const a1 = { width: (841 * 72) / 25.4, height: (594 * 72) / 25.4 };
+		const source = await PDFDocument.create();
+		source.addPage([a1.width, a1.height]);
+		const bytes = await source.save();
+		const pins = [
+			{ pageIndex: 0, x: 900, y: 600, state: 'accepted' as const, label: '31', needsReview: false },
+			{ pageIndex: 0, x: 906, y: 604, state: 'repair' as const, label: '32', needsReview: false }
+		];
+		const set = await buildMarkedUpSet({
+			cover: {
+				projectCode: 'T-2',
+				projectName: 'Large sheets',
+				client: '',
+				scope: 'Whole project',
+				options: [],
+				exportDay: '2026-12-02',
+				exportedBy: 'test',
+				counts: emptyCounts(),
+				warnings: []
+			},
+			drawings: [
+				{
+					id: 1,
+					number: 'A1-SHEET',
+					title: '',
+					area: '',
+					system: '',
+					revisions: [
+						{
+							id: 1,
+							label: '0',
+							status: 'current',
+							fileKey: 'x',
+							sha256: '',
+							bytes: 0,
+							supersededBy: null,
+							sheets: [{ pageIndex: 0, x0: 0, y0: 0, x1: a1.width, y1: a1.height, rotation: 0 }]
+						}
+					]
+				}
+			],
+			pinsOf: () => pins,
+			readFile: async () => bytes,
+			fixedDate: new Date('2026-12-02T00:00:00Z'),
+			onProgress: () => {},
+			checkpoint: () => {}
+		});
+		const pdf = await getDocument({ data: set.bytes.slice(), standardFontDataUrl }).promise;
+		const page = await pdf.getPage(2);
+		const items = (await page.getTextContent()).items.filter((i) => 'str' in i);
+		const sizes = pins.map((pin) => {
+			const item = items.find((i) => 'str' in i && i.str === pin.label);
+			if (!item || !('str' in item)) throw new Error(`${pin.label} missing`);
+			return Math.hypot(item.transform[2], item.transform[3]);
+		});
+		for (const size of sizes) expect(size).toBeCloseTo(STAMP.labelSize * 2, 1);
+		// Two pins 7 pt apart: the second stamp is moved off with a leader, the numbers apart.
+		const positions = pins.map((pin) => {
+			const item = items.find((i) => 'str' in i && i.str === pin.label)!;
+			return 'transform' in item ? [item.transform[4], item.transform[5]] : [0, 0];
+		});
+		expect(
+			Math.hypot(positions[0][0] - positions[1][0], positions[0][1] - positions[1][1])
+		).toBeGreaterThan(20);
 		await pdf.destroy();
 	});
 });

@@ -71,6 +71,32 @@ export interface DemoProject {
 	welders: DemoWelder[];
 }
 
+/** What the sheet generator needs to draw one revision of a demo drawing (optionally reseeded). */
+export function demoSheetSpec(
+	project: DemoProject,
+	drawing: DemoDrawing,
+	revision: DemoDrawing['revisions'][number],
+	seed = revision.seed
+): DemoSheetSpec {
+	return {
+		...revision,
+		seed,
+		kind: drawing.kind,
+		number: drawing.number,
+		title: drawing.title,
+		area: drawing.area,
+		system: drawing.system,
+		units: project.units,
+		party: {
+			owner: project.client,
+			contractor: project.contractor,
+			plant: project.site,
+			projectCode: project.code,
+			projectName: project.name
+		}
+	};
+}
+
 const carbonSteel = 'ASTM A106 Gr B';
 const pipeWps = 'WPS-CS-01 GTAW/SMAW';
 

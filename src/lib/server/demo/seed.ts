@@ -18,6 +18,7 @@ import {
 	DEMO_PASSWORD,
 	DEMO_PROJECTS,
 	DEMO_USERS,
+	demoSheetSpec,
 	type DemoDrawing,
 	type DemoProject
 } from './scenario';
@@ -76,22 +77,7 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 				drawing.number,
 				await Promise.all(
 					drawing.revisions.map((revision) =>
-						renderDemoSheet({
-							...revision,
-							kind: drawing.kind,
-							number: drawing.number,
-							title: drawing.title,
-							area: drawing.area,
-							system: drawing.system,
-							units: project.units,
-							party: {
-								owner: project.client,
-								contractor: project.contractor,
-								plant: project.site,
-								projectCode: project.code,
-								projectName: project.name
-							}
-						})
+						renderDemoSheet(demoSheetSpec(project, drawing, revision))
 					)
 				)
 			);

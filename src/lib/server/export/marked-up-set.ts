@@ -21,8 +21,10 @@ import {
 	shownSize,
 	shownToUser,
 	turn,
+	userToShown,
 	type SheetBox
 } from './sheet-frame';
+import { layoutStamps, stampSize, type StampPlacement, type StampSize } from './stamp-layout';
 import {
 	COVER,
 	coverBox,
@@ -107,48 +109,95 @@ function shownRect(
 	});
 }
 
-function stampMark(page: PDFPage, box: SheetBox, pin: StampPin) {
+/** Where a stamp's glyph sits in user space: on its pin, or where the layout moved it. */
+function stampPoint(box: SheetBox, placement: StampPlacement) {
+	return shownToUser(box, placement.u, placement.v);
+}
+
+/** An offset stamp's leader, ending on the pin's exact point, which a small dot marks. */
+function stampLeader(page: PDFPage, box: SheetBox, placement: StampPlacement, size: StampSize) {
+	if (!placement.leader) return;
+	const from = shownToUser(box, ...placement.leader.from);
+	const to = shownToUser(box, ...placement.leader.to);
+	page.drawLine({ start: from, end: to, thickness: 0.6 * size.scale, color: INK });
+	page.drawCircle({ x: to.x, y: to.y, size: 1.3 * size.scale, color: INK });
+}
+
+function stampMark(
+	page: PDFPage,
+	box: SheetBox,
+	pin: StampPin,
+	placement: StampPlacement,
+	size: StampSize
+) {
 	const look = STATE_LOOKS[pin.state];
+	const at = stampPoint(box, placement);
 	if (pin.needsReview) {
 		page.drawSvgPath(REVIEW_RING, {
-			x: pin.x,
-			y: pin.y,
-			scale: STAMP.glyphScale,
+			x: at.x,
+			y: at.y,
+			scale: size.glyphScale,
 			rotate: degrees(box.rotation),
 			borderColor: hex(look.color),
-			borderWidth: 1.6,
-			borderDashArray: [3, 2]
+			borderWidth: 1.6 * size.scale,
+			borderDashArray: [3 * size.scale, 2 * size.scale]
 		});
 	}
-	drawGlyph(page, pin.state, pin.x, pin.y, STAMP.glyphScale, box.rotation);
+	drawGlyph(page, pin.state, at.x, at.y, size.glyphScale, box.rotation);
 }
 
 /**
- * The number sits above the glyph, centred on the pin's x in the shown frame. Numbers are
- * drawn after every mark of the sheet, so a neighbouring joint's glyph never hides one.
+ * The number sits above the glyph, centred on it in the shown frame. Numbers are drawn after
+ * every mark of the sheet, so a neighbouring joint's glyph never hides one.
  */
-function stampLabel(page: PDFPage, box: SheetBox, pin: StampPin, fonts: Fonts) {
-	const size = STAMP.labelSize;
-	const width = fonts.semibold.widthOfTextAtSize(pin.label, size);
-	const halo = turn(box.rotation, -width / 2 - 1.4, STAMP.labelBaseline - 1.6);
+function stampLabel(
+	page: PDFPage,
+	box: SheetBox,
+	pin: StampPin,
+	placement: StampPlacement,
+	size: StampSize,
+	fonts: Fonts
+) {
+	const at = stampPoint(box, placement);
+	const k = size.scale;
+	const width = fonts.semibold.widthOfTextAtSize(pin.label, size.labelSize);
+	const halo = turn(box.rotation, -width / 2 - 1.4 * k, size.labelBaseline - 1.6 * k);
 	page.drawRectangle({
-		x: pin.x + halo.x,
-		y: pin.y + halo.y,
-		width: width + 2.8,
-		height: size * 0.72 + 3.2,
+		x: at.x + halo.x,
+		y: at.y + halo.y,
+		width: width + 2.8 * k,
+		height: size.labelSize * 0.72 + 3.2 * k,
 		rotate: degrees(box.rotation),
 		color: WHITE,
 		opacity: 0.88
 	});
-	const start = turn(box.rotation, -width / 2, STAMP.labelBaseline);
+	const start = turn(box.rotation, -width / 2, size.labelBaseline);
 	page.drawText(pin.label, {
-		x: pin.x + start.x,
-		y: pin.y + start.y,
-		size,
+		x: at.x + start.x,
+		y: at.y + start.y,
+		size: size.labelSize,
 		font: fonts.semibold,
 		color: INK,
 		rotate: degrees(box.rotation)
 	});
+}
+
+/**
+ * Stamp size for the sheet, and each pin's place: on its point, or offset with a leader where
+ * stamps would overlap (stamp-layout.ts).
+ */
+export function planStamps(box: SheetBox, pins: StampPin[], fonts: Fonts) {
+	const { width, height } = shownSize(box);
+	const size = stampSize(width, height);
+	const placements = layoutStamps(
+		pins.map((pin) => ({
+			...userToShown(box, pin.x, pin.y),
+			labelWidth: fonts.semibold.widthOfTextAtSize(pin.label, size.labelSize)
+		})),
+		{ width, height, bottom: STAMP.footerHeight },
+		size
+	);
+	return { size, placements };
 }
 
 function supersededMark(page: PDFPage, box: SheetBox, note: string, fonts: Fonts) {
@@ -341,12 +390,14 @@ export async function buildMarkedUpSet(input: SetInput): Promise<SetResult> {
 				rotation: normaliseRotation(page.getRotation().angle)
 			};
 			const onSheet = pins.filter((pin) => pin.pageIndex === sheet.pageIndex);
-			for (const pin of onSheet) {
-				stampMark(page, box, pin);
+			const { size, placements } = planStamps(box, onSheet, fonts);
+			for (const placement of placements) stampLeader(page, box, placement, size);
+			for (const [k, pin] of onSheet.entries()) {
+				stampMark(page, box, pin, placements[k], size);
 				await pace();
 			}
-			for (const pin of onSheet) {
-				stampLabel(page, box, pin, fonts);
+			for (const [k, pin] of onSheet.entries()) {
+				stampLabel(page, box, pin, placements[k], size, fonts);
 				entry.pins++;
 				await pace();
 			}

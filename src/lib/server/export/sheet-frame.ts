@@ -44,6 +44,20 @@ export function shownToUser(box: SheetBox, u: number, v: number): { x: number; y
 	}
 }
 
+/** A user-space point in the shown frame (the inverse of shownToUser). */
+export function userToShown(box: SheetBox, x: number, y: number): { u: number; v: number } {
+	switch (box.rotation) {
+		case 90:
+			return { u: y - box.y0, v: box.x1 - x };
+		case 180:
+			return { u: box.x1 - x, v: box.y1 - y };
+		case 270:
+			return { u: box.y1 - y, v: x - box.x0 };
+		default:
+			return { u: x - box.x0, v: y - box.y0 };
+	}
+}
+
 /**
  * A displacement of the shown frame in user space: the shown frame is user space turned
  * counter-clockwise by the page's rotation, which is also the `rotate` pdf-lib is given.
