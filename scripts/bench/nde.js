@@ -33,8 +33,15 @@ export function seedOneLot(file) {
 			{ length: LOT_WELDERS },
 			(_, n) =>
 				db
-					.prepare('insert into welders (project_id, stamp, name) values (?, ?, ?) returning id')
-					.get(projectId, `L${String(n + 1).padStart(2, '0')}`, `Lot welder ${n + 1}`).id
+					.prepare(
+						'insert into welders (project_id, stamp, stamp_key, name) values (?, ?, upper(?), ?) returning id'
+					)
+					.get(
+						projectId,
+						`L${String(n + 1).padStart(2, '0')}`,
+						`L${String(n + 1).padStart(2, '0')}`,
+						`Lot welder ${n + 1}`
+					).id
 		);
 		const drawing = db.prepare(
 			"insert into drawings (project_id, number, kind, line) values (?, ?, 'isometric', '6-P-5000-A1') returning id"

@@ -77,7 +77,8 @@ export function seed(file) {
 			"insert into revisions (drawing_id, label, status, file_key, file_name, sha256, bytes, page_count) values (?, '0', 'current', ?, 'sheet.pdf', ?, 1000, 1) returning id"
 		),
 		welder: db.prepare(
-			'insert into welders (project_id, stamp, name) values (?, ?, ?) returning id'
+			// stamp_key: the stamp as the unique index compares it (ASCII stamps: upper-cased).
+			'insert into welders (project_id, stamp, stamp_key, name) values (?, ?, upper(?), ?) returning id'
 		),
 		joint: db.prepare(
 			`insert into joints (project_id, drawing_id, number, sort_key, kind, line, size_text, material,
@@ -99,10 +100,10 @@ export function seed(file) {
 	let inspections = 0;
 	db.transaction(() => {
 		const projectId = insert.project.get().id;
+		const stampOf = (n) => `W${String(n + 1).padStart(2, '0')}`;
 		const welderIds = Array.from(
 			{ length: WELDERS },
-			(_, n) =>
-				insert.welder.get(projectId, `W${String(n + 1).padStart(2, '0')}`, `Welder ${n + 1}`).id
+			(_, n) => insert.welder.get(projectId, stampOf(n), stampOf(n), `Welder ${n + 1}`).id
 		);
 		for (let dn = 0; dn < DRAWINGS; dn++) {
 			const area = `Area ${String((dn % AREAS) + 1).padStart(2, '0')}`;
