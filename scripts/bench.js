@@ -15,6 +15,7 @@ const sections = [
 	'pins',
 	'weld-log',
 	'export',
+	'nde',
 	'suggestions',
 	'load'
 ];

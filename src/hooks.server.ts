@@ -8,6 +8,7 @@ import * as mail from '$lib/server/mail';
 import * as users from '$lib/server/users';
 import * as guard from '$lib/server/sign-in-guard';
 import * as exportJobs from '$lib/server/exports';
+import * as nde from '$lib/server/nde';
 import { allowedMethods, routeRule, ruleFor } from '$lib/server/route-access';
 import { projectOf } from '$lib/server/route-project';
 import { can, canGlobal, isMember } from '$lib/permissions';
@@ -28,6 +29,8 @@ export const init: ServerInit = async () => {
 			`Tacksheet: first start, seeded ${result.users} users, ${result.projects} projects, ${result.drawings} drawings, ${result.joints} joints.`
 		);
 	}
+	// NDE lots for welds recorded before lots were kept (or written around welds.record).
+	nde.syncAll();
 };
 
 function clientOf(event: RequestEvent): string {

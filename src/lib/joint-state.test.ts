@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import {
 	deriveJointState,
 	displayWeldNumber,
+	isComplete,
 	JOINT_STATES,
 	parseNdeRequirement,
 	STATE_LOOKS,
@@ -159,6 +160,62 @@ describe('joint state from its records', () => {
 				joint({ ...welded, inspections: [row('fitup', 'accept'), visual, once, twice] })
 			).state
 		).toBe('accepted');
+	});
+
+	// A weld in an NDE lot that is not itself selected stands or falls with the lot's sample:
+	// the items a passing sample represents are accepted (ASME B31.3-2018 341.3.4(b), (d)).
+	it("waits on its lot's sample, then is accepted by it, once its visual is accepted", () => {
+		const visual = {
+			welds: [{ repairCycle: 0 }],
+			inspections: [row('fitup', 'accept'), row('visual', 'accept')]
+		};
+		expect(deriveJointState(joint({ ...visual, lotSample: 'pending' })).state).toBe('awaiting_lot');
+		expect(deriveJointState(joint({ ...visual, lotSample: 'passed' })).state).toBe(
+			'accepted_by_lot'
+		);
+		expect(deriveJointState(joint({ ...visual, lotSample: null })).state).toBe('accepted');
+		// Before its visual, and after a visual reject, the lot changes nothing.
+		expect(
+			deriveJointState(
+				joint({
+					welds: [{ repairCycle: 0 }],
+					inspections: [row('fitup', 'accept')],
+					lotSample: 'passed'
+				})
+			).state
+		).toBe('awaiting_visual');
+		expect(
+			deriveJointState(
+				joint({
+					welds: [{ repairCycle: 0 }],
+					inspections: [row('fitup', 'accept'), row('visual', 'reject')],
+					lotSample: 'passed'
+				})
+			).state
+		).toBe('repair');
+	});
+
+	it("puts its own NDE first: selected, it awaits NDE whatever its lot's sample says", () => {
+		const visual = {
+			welds: [{ repairCycle: 0 }],
+			inspections: [row('fitup', 'accept'), row('visual', 'accept')]
+		};
+		expect(
+			deriveJointState(joint({ ...visual, ndeMethods: ['MT'], lotSample: 'passed' })).state
+		).toBe('awaiting_nde');
+		expect(
+			deriveJointState(
+				joint({
+					...visual,
+					ndeMethods: ['MT'],
+					lotSample: 'pending',
+					inspections: [...visual.inspections, row('nde', 'accept', { method: 'MT' })]
+				})
+			).state
+		).toBe('awaiting_lot');
+		expect(isComplete('accepted_by_lot')).toBe(true);
+		expect(isComplete('accepted')).toBe(true);
+		expect(isComplete('awaiting_lot')).toBe(false);
 	});
 
 	it('is void whatever the records say once voided', () => {

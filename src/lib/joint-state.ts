@@ -12,11 +12,20 @@ export const JOINT_STATES = [
 	'awaiting_visual',
 	'repair',
 	'awaiting_nde',
+	'awaiting_lot',
+	'accepted_by_lot',
 	'accepted',
 	'void'
 ] as const;
 
 export type JointState = (typeof JOINT_STATES)[number];
+
+/** The states in which a joint needs nothing more: accepted on its own records, or by its lot's sample. */
+export const COMPLETE_STATES = ['accepted_by_lot', 'accepted'] as const satisfies JointState[];
+
+export function isComplete(state: JointState): boolean {
+	return (COMPLETE_STATES as readonly JointState[]).includes(state);
+}
 
 export { NDE_METHODS, type NdeMethod, type InspectionStage, type Decision };
 
@@ -107,6 +116,31 @@ export const STATE_LOOKS: Record<JointState, StateLook> = {
 			filled: true
 		}
 	},
+	// Not selected in its NDE lot: it stands or falls with the lot's sample (ASME B31.3 341.3.4).
+	awaiting_lot: {
+		label: 'Awaiting lot sample',
+		next: "Its lot's NDE sample: selected, examined and passed",
+		owner: null,
+		color: '#785aff',
+		onColor: '#ffffff',
+		glyph: {
+			shape: 'M -4.8 -8.5 L 4.8 -8.5 L 9.7 0 L 4.8 8.5 L -4.8 8.5 L -9.7 0 Z',
+			filled: false,
+			mark: 'M -3.5 0 L 3.5 0'
+		}
+	},
+	accepted_by_lot: {
+		label: 'Accepted by lot sample',
+		next: 'Complete',
+		owner: null,
+		color: '#0f5a4b',
+		onColor: '#ffffff',
+		glyph: {
+			shape: 'M -8 -8 L 8 -8 L 8 8 L -8 8 Z',
+			filled: false,
+			mark: 'M -4.6 0.4 L -1.4 3.8 L 5 -3.6'
+		}
+	},
 	accepted: {
 		label: 'Accepted',
 		next: 'Complete',
@@ -142,6 +176,11 @@ export interface StateInput {
 	welds: readonly { repairCycle: number }[];
 	/** In the order they were recorded. */
 	inspections: readonly StateInspection[];
+	/**
+	 * For a weld in an NDE lot that is not itself selected there: whether the lot's sample has
+	 * accepted it yet. Absent when the joint is in no such lot.
+	 */
+	lotSample?: 'passed' | 'pending' | null;
 }
 
 export interface DerivedState {
@@ -220,7 +259,10 @@ export function deriveJointState(input: StateInput): DerivedState {
 		if (nde?.decision === 'reject') return { state: 'repair', repairCycle };
 		if (!nde) waiting = true;
 	}
-	return { state: waiting ? 'awaiting_nde' : 'accepted', repairCycle };
+	if (waiting) return { state: 'awaiting_nde', repairCycle };
+	if (input.lotSample === 'pending') return { state: 'awaiting_lot', repairCycle };
+	if (input.lotSample === 'passed') return { state: 'accepted_by_lot', repairCycle };
+	return { state: 'accepted', repairCycle };
 }
 
 /** The weld number as it is written on the map: `12`, or `12-R1` after a first repair. */

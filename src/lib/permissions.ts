@@ -34,6 +34,8 @@ export const PROJECT_ACTIONS = [
 	'joint.cutout',
 	'inspection.record',
 	'nde.select',
+	/** close and reopen NDE lots: no role has it, so the QC manager (administrator) only */
+	'nde.lot.manage',
 	'weld.record',
 	/** record a weld past a lapsed or expired welder qualification, with the reason: administrators only */
 	'weld.override',

@@ -48,6 +48,10 @@ export interface WeldLogRow {
 	voidReason: string | null;
 	/** A standing fit-up, visual or NDE decision of this joint goes against the verdict. */
 	againstVerdict: boolean;
+	/** NDE lots: the lots the weld is in, how it was selected there, the reject a tracer traces. */
+	ndeLot: string;
+	ndeSelection: string;
+	ndeTracerOf: string;
 }
 
 export interface WeldLogColumn {
@@ -172,6 +176,15 @@ export const COLUMNS: readonly WeldLogColumn[] = [
 	},
 	{ id: 'visualResult', header: 'Visual', value: (r) => result(r.visualResult), shown: true },
 	{ id: 'ndeRequired', header: 'NDE required', value: (r) => r.ndeRequired, shown: false },
+	{ id: 'ndeLot', header: 'NDE lot', value: (r) => r.ndeLot, shown: false, width: 30 },
+	{
+		id: 'ndeSelection',
+		header: 'NDE selection',
+		value: (r) => r.ndeSelection,
+		shown: true,
+		width: 18
+	},
+	{ id: 'ndeTracerOf', header: 'Tracer of', value: (r) => r.ndeTracerOf, shown: false, width: 22 },
 	{ id: 'ndeMethods', header: 'NDE done', value: (r) => r.ndeMethods, shown: false },
 	{ id: 'ndeReports', header: 'NDE report', value: (r) => r.ndeReports, shown: false, width: 16 },
 	{ id: 'ndeResult', header: 'NDE', value: (r) => result(r.ndeResult), shown: true },

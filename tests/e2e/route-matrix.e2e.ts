@@ -179,6 +179,8 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			data: { scope: { all: true } }
 		});
 		const exportId = ((await started.json()) as { id: number }).id;
+		const lot = (await (await admin.get(`/api/projects/${projectId}/nde/lots?pageSize=1`)).json())
+			.items[0];
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
@@ -186,6 +188,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
 			exportId: String(exportId),
+			lotId: String(lot.id),
 			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
 			page: '0',
 			level: '0',

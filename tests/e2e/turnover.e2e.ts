@@ -84,6 +84,7 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 		'weld-log.xlsx',
 		'weld-log.csv',
 		'inspections.csv',
+		'nde-register.csv',
 		'manifest.json'
 	]);
 	const manifest = JSON.parse(entries.get('manifest.json')!.toString('utf8')) as {

@@ -19,29 +19,24 @@ let jointId: number;
 beforeAll(async () => {
 	await seedIfEmpty();
 	projectId = db.select().from(schema.projects).where(eq(schema.projects.code, 'LBM-20')).get()!.id;
-	const joint = db
-		.select()
-		.from(schema.joints)
+	// A joint of the project with at least one inspection, so both files carry its free text.
+	const inspection = db
+		.select({ id: schema.inspections.id, jointId: schema.inspections.jointId })
+		.from(schema.inspections)
+		.innerJoin(schema.joints, eq(schema.joints.id, schema.inspections.jointId))
 		.where(eq(schema.joints.projectId, projectId))
 		.limit(1)
 		.get()!;
-	jointId = joint.id;
+	jointId = inspection.jointId;
 	// Free text as a person (or a hostile file) might type it.
 	db.update(schema.joints)
 		.set({ line: '=HYPERLINK("http://x.test","open")', material: '-2+3' })
 		.where(eq(schema.joints.id, jointId))
 		.run();
-	const inspection = db
-		.select()
-		.from(schema.inspections)
-		.where(eq(schema.inspections.jointId, jointId))
-		.limit(1)
-		.get();
-	if (inspection)
-		db.update(schema.inspections)
-			.set({ reportNo: '-1+1', reason: '+CMD' })
-			.where(eq(schema.inspections.id, inspection.id))
-			.run();
+	db.update(schema.inspections)
+		.set({ reportNo: '-1+1', reason: '+CMD' })
+		.where(eq(schema.inspections.id, inspection.id))
+		.run();
 }, 120_000);
 
 async function weldLogText(): Promise<string> {

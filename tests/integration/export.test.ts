@@ -145,6 +145,7 @@ describe('a turnover set of the demo project', () => {
 			'weld-log.xlsx',
 			'weld-log.csv',
 			'inspections.csv',
+			'nde-register.csv',
 			'manifest.json'
 		]);
 		const manifest = JSON.parse(entries.at(-1)!.bytes.toString('utf8')) as Manifest;

@@ -293,7 +293,8 @@ describe('the verdict is the server own, and a decision against it needs a reaso
 			againstVerdict: true,
 			reason: 'Undercut blended out and re-gauged at 1/32 in; owner QA witnessed.'
 		});
-		expect(expectCacheAgrees(joint.id).state).toBe('accepted');
+		// Not selected in its RT 5 % lot: it waits on the lot's sample (ASME B31.3-2018 341.4.1(b)(1)).
+		expect(expectCacheAgrees(joint.id).state).toBe('awaiting_lot');
 	});
 
 	it('refuses a reject of readings within the limit without a reason, flags it with one', () => {
@@ -322,7 +323,7 @@ describe('the verdict is the server own, and a decision against it needs a reaso
 			decision: 'accept'
 		});
 		expect(accepted.inspection).toMatchObject({ verdict: 'judge', againstVerdict: false });
-		expect(accepted.joint.state).toBe('accepted');
+		expect(accepted.joint.state).toBe('awaiting_lot');
 	});
 
 	// ASME B31.3-2018 Table 341.3.2 criterion B (normal, girth): incomplete penetration at most
@@ -431,7 +432,7 @@ describe('corrections are new rows that supersede', () => {
 		inspect(joint.id, { stage: 'fitup', readings: FITUP, decision: 'accept' });
 		weldJoint(projectId, joint.id, foremanId);
 		const original = inspect(joint.id, { stage: 'visual', readings: WITHIN, decision: 'accept' });
-		expect(original.joint.state).toBe('accepted');
+		expect(original.joint.state).toBe('awaiting_lot');
 
 		// A second result without naming the one it replaces is refused, not taken as the last word.
 		expect(() =>

@@ -177,11 +177,7 @@ describe('numbering by line', () => {
 				defaultCriteriaSet: project.defaultCriteriaSet,
 				shopPrefix: '',
 				fieldPrefix: 'FW-',
-				sequence: 'line',
-				lotGroupBy: 'line',
-				rtPercent: 5,
-				utPercent: 0,
-				everyWelder: true
+				sequence: 'line'
 			},
 			userId
 		);

@@ -6,6 +6,7 @@
 import { z } from 'zod';
 import { DECISIONS, INSPECTION_STAGES, NDE_METHODS, REASON_MIN_LENGTH } from '$lib/domain';
 import { readingsSchema } from './acceptance';
+import { ndeResultExtras } from './nde';
 import { jointVersion } from './joint';
 import { calendarDate, note, text } from './text';
 
@@ -28,7 +29,8 @@ export const recordInspectionSchema = z
 			.int()
 			.min(1)
 			.optional(),
-		version
+		version,
+		...ndeResultExtras
 	})
 	.superRefine((input, ctx) => {
 		if (input.stage === 'nde' && !input.method) {
@@ -53,6 +55,21 @@ export const recordInspectionSchema = z
 				message: 'An NDE result carries no gauge readings; give the report number and the decision.'
 			});
 		}
+		if (
+			input.indications?.length &&
+			!(input.stage === 'nde' && ['RT', 'UT'].includes(input.method!))
+		)
+			ctx.addIssue({
+				code: 'custom',
+				path: ['indications'],
+				message: 'Indications belong to an RT or UT result.'
+			});
+		if (input.welders?.length && !(input.stage === 'nde' && input.decision === 'reject'))
+			ctx.addIssue({
+				code: 'custom',
+				path: ['welders'],
+				message: 'The welders whose work the defect is in are named on an NDE reject only.'
+			});
 	});
 
 export type RecordInspection = z.infer<typeof recordInspectionSchema>;

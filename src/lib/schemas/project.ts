@@ -2,11 +2,6 @@
 import { z } from 'zod';
 import { text } from './text';
 
-const percent = z.coerce
-	.number()
-	.min(0, { error: 'At least 0 %.' })
-	.max(100, { error: 'At most 100 %.' });
-
 export const projectSettingsSchema = z.object({
 	name: text('The name', 160, { min: 1, minError: 'Name the project.' }),
 	client: text('The client', 160).default(''),
@@ -29,9 +24,5 @@ export const projectSettingsSchema = z.object({
 		.max(8)
 		.regex(/^[A-Za-z0-9-]*$/, { error: 'Letters, digits and "-" only.' })
 		.default('FW-'),
-	sequence: z.enum(['drawing', 'line']).default('drawing'),
-	lotGroupBy: z.enum(['line', 'system', 'drawing', 'week']).default('line'),
-	rtPercent: percent.default(5),
-	utPercent: percent.default(0),
-	everyWelder: z.boolean().default(true)
+	sequence: z.enum(['drawing', 'line']).default('drawing')
 });

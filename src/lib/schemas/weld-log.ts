@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { JOINT_STATES } from '$lib/joint-state';
 import { WELD_LOG_SORTS } from '$lib/weld-log';
+import { SELECTION_FILTERS } from '$lib/nde/log';
 
 export const WELD_LOG_MAX_PAGE_SIZE = 500;
 
@@ -27,6 +28,20 @@ export const weldLogFilter = z.object({
 		})
 		.optional(),
 	q: z.string().trim().max(80, { error: 'Search for at most 80 characters.' }).default(''),
+	/** NDE lots: how the weld was selected, its lot, a report number it appears on. */
+	selection: z
+		.enum(SELECTION_FILTERS, { error: `selection is one of: ${SELECTION_FILTERS.join(', ')}.` })
+		.optional(),
+	lot: z.coerce
+		.number({ error: 'A lot is given by its id.' })
+		.int({ error: 'A lot is given by its id.' })
+		.positive({ error: 'A lot is given by its id.' })
+		.optional(),
+	report: z
+		.string()
+		.trim()
+		.max(60, { error: 'A report number has at most 60 characters.' })
+		.optional(),
 	sort: z
 		.enum(WELD_LOG_SORTS, { error: `Sort by one of: ${WELD_LOG_SORTS.join(', ')}.` })
 		.default('drawing'),

@@ -42,6 +42,16 @@ export const AUDIT_ACTIONS = [
 	'export.cancel',
 	'export.file.remove',
 	'export.file.orphan',
+	// NDE lots: forming, selection, swaps, tracers, closing, requests to the contractor
+	'nde_lot_open',
+	'nde_adopt',
+	'nde_select',
+	'nde_swap',
+	'nde_tracers',
+	'nde_tracers_again',
+	'nde_lot_close',
+	'nde_lot_reopen',
+	'nde_request',
 	// the demo job
 	'seed'
 ] as const;

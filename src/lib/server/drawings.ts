@@ -1,6 +1,20 @@
 /** The drawing register: drawings, their revisions and sheets, uploads and supersede. */
 import { DomainError } from './errors';
-import { and, asc, count, desc, eq, exists, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
+import {
+	and,
+	asc,
+	count,
+	desc,
+	eq,
+	exists,
+	inArray,
+	ne,
+	notInArray,
+	or,
+	sql,
+	type SQL
+} from 'drizzle-orm';
+import { COMPLETE_STATES } from '$lib/joint-state';
 import { db, schema } from './db';
 import * as storage from './storage';
 import * as audit from './audit';
@@ -32,11 +46,11 @@ function liveJointsWhere(extra?: SQL) {
 function statusFilter(status: DrawingListQuery['status']): SQL | undefined {
 	switch (status) {
 		case 'open':
-			return exists(liveJointsWhere(ne(j.state, 'accepted')));
+			return exists(liveJointsWhere(notInArray(j.state, [...COMPLETE_STATES])));
 		case 'complete':
 			return and(
 				exists(liveJointsWhere()),
-				sql`not ${exists(liveJointsWhere(ne(j.state, 'accepted')))}`
+				sql`not ${exists(liveJointsWhere(notInArray(j.state, [...COMPLETE_STATES])))}`
 			);
 		case 'empty':
 			return sql`not ${exists(liveJointsWhere())}`;

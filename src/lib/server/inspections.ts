@@ -12,6 +12,7 @@ import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import * as inspectionRequests from './inspection-requests';
+import * as ndeLots from './nde';
 import { DomainError, refuse } from './errors';
 import { lockedJoint, refreshState, row, stateInput } from './joints';
 import {
@@ -281,6 +282,14 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 		// The hold point the foreman called for this stage is released by this very record,
 		// in the same transaction, so the board never shows one without the other.
 		inspectionRequests.closeByInspection(tx, jointId, input.stage, inspection.id, now);
+		// NDE lots: the report's indications, the request it answers, the tracers a reject calls.
+		const nde = ndeLots.afterResult(tx, {
+			inspection,
+			joint,
+			extras: { indications: input.indications, welders: input.welders },
+			units: projects.unitsOf(joint.projectId, tx),
+			userId: inspectorId
+		});
 		audit.record(
 			{
 				action: correcting ? 'inspection_correct' : 'inspection',
@@ -312,6 +321,6 @@ export function record(jointId: number, input: RecordInspection, inspectorId: st
 			drawingId: joint.drawingId,
 			by: inspectorId
 		});
-		return { inspection, joint: jointSummary(row(jointId, tx)!) };
+		return { inspection, joint: jointSummary(row(jointId, tx)!), nde };
 	});
 }

@@ -11,6 +11,8 @@ import * as audit from './audit';
 import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
+import { lotSample } from './nde/standing';
+import * as nde from './nde';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -53,6 +55,8 @@ export function stateInput(jointId: number, tx: Reader = db) {
 	return {
 		voided: joint.voidedAt != null,
 		ndeMethods: [...methods],
+		// NDE lots: a weld not itself selected stands or falls with its lot's sample.
+		lotSample: lotSample(tx, jointId),
 		welds: tx
 			.select({ repairCycle: schema.welds.repairCycle })
 			.from(schema.welds)
@@ -682,6 +686,8 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 			.returning()
 			.get();
 		refreshState(replacement.id, tx, now);
+		// NDE lots: the replacement takes over the cut-out weld's lots and selections.
+		nde.afterCutOut(tx, jointId, replacement.id, now);
 		audit.record(
 			{
 				action: 'cut_out',

@@ -105,14 +105,6 @@ export function updateSettings(
 			shopPrefix: input.shopPrefix,
 			fieldPrefix: input.fieldPrefix,
 			sequence: input.sequence
-		},
-		ndeLotRule: {
-			groupBy: input.lotGroupBy,
-			percent: {
-				...(input.rtPercent ? { RT: input.rtPercent } : {}),
-				...(input.utPercent ? { UT: input.utPercent } : {})
-			},
-			everyWelder: input.everyWelder
 		}
 	};
 	return db.transaction((tx) => {

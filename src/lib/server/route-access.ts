@@ -160,7 +160,29 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/api/projects/[projectId=id]/criteria-sets/[setId]': { GET: project('project.read') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
-	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN }
+	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN },
+	// -- NDE lots, selection, tracers and requests: entries below --
+	'/(app)/projects/[projectId=id]/nde': { GET: project('project.read') },
+	'/(app)/projects/[projectId=id]/settings/nde': {
+		GET: project('project.settings'),
+		actions: { default: project('project.settings') }
+	},
+	'/api/projects/[projectId=id]/nde/lots': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]/selection': {
+		GET: project('nde.select'),
+		POST: project('nde.select')
+	},
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]/swap': { POST: project('nde.select') },
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]/tracers': { POST: project('nde.select') },
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]/close': { POST: project('nde.lot.manage') },
+	'/api/projects/[projectId=id]/nde/lots/[lotId=id]/reopen': { POST: project('nde.lot.manage') },
+	'/api/projects/[projectId=id]/nde/requests': {
+		GET: project('project.read'),
+		POST: project('nde.select')
+	},
+	'/api/projects/[projectId=id]/nde/repair-rates': { GET: project('project.read') },
+	'/api/joints/[jointId=id]/nde': { GET: project('project.read') }
 };
 
 /** The rule for a request, or undefined when the table does not cover it (refused). */

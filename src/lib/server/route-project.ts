@@ -47,6 +47,14 @@ function projectOfExport(exportId: number): number | undefined {
 		.get()?.projectId;
 }
 
+function projectOfLot(lotId: number): number | undefined {
+	return db
+		.select({ projectId: schema.ndeLots.projectId })
+		.from(schema.ndeLots)
+		.where(eq(schema.ndeLots.id, lotId))
+		.get()?.projectId;
+}
+
 /** The project's id, or null when the route has no project or an id in it does not exist. */
 export function projectOf(params: Partial<Record<string, string>>): number | null {
 	const found = new Set<number | undefined>();
@@ -81,6 +89,7 @@ export function projectOf(params: Partial<Record<string, string>>): number | nul
 	if (params.jointId) found.add(projectOfJoint(Number(params.jointId)));
 	if (params.pinId) found.add(projectOfPin(Number(params.pinId)));
 	if (params.exportId) found.add(projectOfExport(Number(params.exportId)));
+	if (params.lotId) found.add(projectOfLot(Number(params.lotId)));
 	if (found.size !== 1) return null;
 	const [projectId] = found;
 	return projectId ?? null;

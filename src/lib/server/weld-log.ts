@@ -16,8 +16,14 @@ import { csvLine, csvRows } from './csv';
 import { and, asc, count, desc, eq, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
+import * as nde from './nde';
 import { stateRank } from './db/schema';
-import { displayWeldNumber, effectiveInspections, type Decision } from '$lib/joint-state';
+import {
+	COMPLETE_STATES,
+	displayWeldNumber,
+	effectiveInspections,
+	type Decision
+} from '$lib/joint-state';
 import { standingSql } from './inspections';
 import * as counting from './state-counts';
 import { COLUMNS, type WeldLogRow } from '$lib/weld-log';
@@ -101,7 +107,9 @@ function whereOf(projectId: number, filter: WeldLogFilter, joined: boolean): SQL
 					like(j.line),
 					inArray(j.drawingId, drawingsWhere(projectId, like(d.number)))
 				)
-			: undefined
+			: undefined,
+		// NDE lots: selected how, in which lot, on which report.
+		nde.logWhere(projectId, j.id, filter)
 	);
 }
 
@@ -230,6 +238,7 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 		if (!list.includes(s.stamp)) list.push(s.stamp);
 		stampsOf.set(s.weldId, entry);
 	}
+	const ndeFields = nde.logFields(ids);
 	const recordsOf = new Map<number, typeof records>();
 	for (const rec of records)
 		recordsOf.set(rec.jointId, [...(recordsOf.get(rec.jointId) ?? []), rec]);
@@ -280,7 +289,10 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 				ndeAt: nde.length ? Math.max(...nde.map((rec) => rec.inspectedAt)) : null,
 				repairCount: row.repairCycle,
 				voidReason: row.voidReason,
-				againstVerdict: own.some((rec) => rec.againstVerdict)
+				againstVerdict: own.some((rec) => rec.againstVerdict),
+				ndeLot: ndeFields.get(row.id)?.ndeLot ?? '',
+				ndeSelection: ndeFields.get(row.id)?.ndeSelection ?? '',
+				ndeTracerOf: ndeFields.get(row.id)?.ndeTracerOf ?? ''
 			};
 			return [row.id, item] as const;
 		})
@@ -474,7 +486,7 @@ export function progress(projectId: number, area?: string) {
 	const perDay = db
 		.select({ day, n: count() })
 		.from(j)
-		.where(and(scope, eq(j.state, 'accepted')))
+		.where(and(scope, inArray(j.state, [...COMPLETE_STATES])))
 		.groupBy(day)
 		.orderBy(day)
 		.all();

@@ -14,6 +14,7 @@ import * as audit from './audit';
 import * as events from './events';
 import { DomainError } from './errors';
 import { lockedJoint, refreshState, row, stateInput } from './joints';
+import * as nde from './nde';
 import { jointSummary } from './inspections';
 import { deriveJointState, displayWeldNumber, type JointState } from '$lib/joint-state';
 import { can, type Principal } from '$lib/permissions';
@@ -152,6 +153,10 @@ const NOT_READY: Record<Exclude<JointState, 'ready_to_weld' | 'repair'>, string>
 		'is already welded and waits for its visual inspection; a repair weld follows a reject only.',
 	awaiting_nde:
 		'is already welded and waits for NDE; a repair weld follows a rejected result only.',
+	awaiting_lot:
+		"is already welded and waits on its NDE lot's sample; a repair weld follows a rejected result only.",
+	accepted_by_lot:
+		"is accepted by its NDE lot's sample: nothing more is welded on it. A cut-out becomes a new joint.",
 	accepted: 'is accepted: nothing more is welded on it. A cut-out becomes a new joint.',
 	void: 'is void: nothing more is recorded on it.'
 };
@@ -401,6 +406,8 @@ export function record(
 			.where(eq(schema.joints.id, jointId))
 			.run();
 		const after = refreshState(jointId, tx, now)!;
+		// NDE lots: an original weld joins the open lot of its grouping.
+		nde.afterWeld(tx, jointId, cycle, now);
 		audit.record(
 			{
 				action: 'weld',

@@ -32,8 +32,10 @@ import {
 	type WeldPass
 } from '../../domain';
 import type { ProjectRole } from '../../permissions';
-import type { CheckId, Finding } from '../../acceptance/types';
+import type { CheckId, Finding, IndicationType } from '../../acceptance/types';
 import type { LimitOverride } from '../../acceptance/derive';
+import type { LotGrouping, LotRule } from '../../nde/extent';
+import type { LotStage, SelectionReason } from '../../nde/sampling';
 import type { TileFormat, TileLevel, TileStatus } from '../../sheet-tiles';
 
 export type { ProjectRole };
@@ -73,14 +75,15 @@ export interface WeldNumberRule {
 	sequence: 'drawing' | 'line';
 }
 
-export interface NdeLotRule {
-	/** How a lot is formed, agreed before work starts. */
-	groupBy: 'line' | 'system' | 'drawing' | 'week';
-	/** Random examination extent per method, in percent of joints in the lot. */
-	percent: Partial<Record<NdeMethod, number>>;
-	/** Every welder with joints in the lot is represented in the sample. */
-	everyWelder: boolean;
-}
+/**
+ * How NDE lots form and what extent they carry, agreed before work starts. Read it through
+ * `readLotRule` (src/lib/nde/extent.ts), which also reads the older shape (a `percent` per
+ * method and four groupings) still in the column's default.
+ */
+export type NdeLotRule = Partial<LotRule> & {
+	/** The older shape: extent per method for every joint. */
+	percent?: Partial<Record<NdeMethod, number>>;
+};
 
 // Auth.js and people ------------------------------------------------------------------
 
@@ -640,7 +643,97 @@ export const inspectionRequests = sqliteTable(
 	]
 );
 
-/** A joint chosen for NDE: by lot sampling, as a tracer for a reject, or by the client. */
+// NDE lots and sampling (src/lib/server/nde.ts) ------------------------------------------
+
+/**
+ * A lot: welds of one grouping (a line, a system, a week …) sampled together by one method at
+ * one extent. Open while it can still receive welds; the QC manager closes it, and a weld of
+ * the same grouping welded later starts the next lot (`seq` + 1).
+ */
+export const ndeLots = sqliteTable(
+	'nde_lots',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		method: text('method').$type<NdeMethod>().notNull(),
+		percent: real('percent').notNull(),
+		/** Kinds of weld the extent covers, e.g. `butt` or `butt,branch`. */
+		kinds: text('kinds').notNull(),
+		groupBy: text('group_by').$type<LotGrouping>().notNull(),
+		groupKey: text('group_key').notNull(),
+		seq: integer('seq').notNull().default(1),
+		label: text('label').notNull(),
+		everyWelder: integer('every_welder', { mode: 'boolean' }).notNull().default(true),
+		status: text('status').$type<'open' | 'closed'>().notNull().default('open'),
+		/** Where the lot stood at its last change (src/lib/nde/sampling.ts), for filtering lists. */
+		stage: text('stage').$type<LotStage>().notNull().default('open'),
+		createdAt: createdAt(),
+		closedBy: text('closed_by').references(() => users.id),
+		closedAt: integer('closed_at'),
+		closeNote: text('close_note')
+	},
+	(t) => [
+		uniqueIndex('nde_lots_key').on(
+			t.projectId,
+			t.method,
+			t.percent,
+			t.kinds,
+			t.groupBy,
+			t.groupKey,
+			t.seq
+		),
+		index('nde_lots_project_status').on(t.projectId, t.status, t.label),
+		index('nde_lots_project_stage').on(t.projectId, t.stage, t.label)
+	]
+);
+
+/** A weld in a lot, from the moment its original weld is recorded. */
+export const ndeLotJoints = sqliteTable(
+	'nde_lot_joints',
+	{
+		lotId: integer('lot_id')
+			.notNull()
+			.references(() => ndeLots.id, { onDelete: 'cascade' }),
+		jointId: integer('joint_id')
+			.notNull()
+			.references(() => joints.id, { onDelete: 'cascade' }),
+		/** When the original weld was recorded: an examination before it cannot accept it. */
+		weldedAt: integer('welded_at').notNull(),
+		addedAt: integer('added_at').notNull().default(now)
+	},
+	(t) => [
+		primaryKey({ columns: [t.lotId, t.jointId] }),
+		index('nde_lot_joints_joint').on(t.jointId, t.lotId)
+	]
+);
+
+/** One selection drawn in a lot, with the seed that draws it again from the same candidates. */
+export const ndeRounds = sqliteTable(
+	'nde_rounds',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		lotId: integer('lot_id')
+			.notNull()
+			.references(() => ndeLots.id, { onDelete: 'cascade' }),
+		/** Null for selections recorded before lots were kept. */
+		seed: integer('seed'),
+		/** The lot as it stood: welds, sample size asked, and candidates drawn from. */
+		joints: integer('joints').notNull(),
+		required: integer('required').notNull(),
+		candidates: integer('candidates').notNull(),
+		committedBy: text('committed_by').references(() => users.id),
+		committedAt: integer('committed_at').notNull().default(now)
+	},
+	(t) => [index('nde_rounds_lot').on(t.lotId, t.committedAt)]
+);
+
+/**
+ * A joint chosen for NDE: a random draw in its lot (or a swap for one, or the client's pick),
+ * a tracer called by a reject, all of a welder's work at 100 %, or a requirement. Never
+ * deleted: a swap cancels the row it replaces, with the reason.
+ */
 export const ndeSelections = sqliteTable(
 	'nde_selections',
 	{
@@ -652,18 +745,143 @@ export const ndeSelections = sqliteTable(
 			.notNull()
 			.references(() => joints.id, { onDelete: 'cascade' }),
 		method: text('method').$type<NdeMethod>().notNull(),
+		/** The lot's label as it was when selected (kept for selections made before lots). */
 		lot: text('lot').notNull().default(''),
-		reason: text('reason').$type<'random' | 'tracer' | 'client' | 'required'>().notNull(),
+		reason: text('reason').$type<SelectionReason>().notNull(),
 		tracerOfJointId: integer('tracer_of_joint_id').references(() => joints.id),
 		selectedBy: text('selected_by').references(() => users.id),
 		selectedAt: integer('selected_at').notNull().default(now),
-		cancelledAt: integer('cancelled_at')
+		cancelledAt: integer('cancelled_at'),
+		lotId: integer('lot_id').references(() => ndeLots.id, { onDelete: 'cascade' }),
+		roundId: integer('round_id').references(() => ndeRounds.id),
+		/** 0 the sample, 1 and 2 tracers, 3 all of a welder's work (ASME B31.3 341.3.4). */
+		level: integer('level').notNull().default(0),
+		/** Whose work a tracer or a 100 % selection examines. */
+		welderId: integer('welder_id').references(() => welders.id),
+		/** The selection whose reject called this one. */
+		tracerOfId: integer('tracer_of_id').references((): AnySQLiteColumn => ndeSelections.id),
+		/** The selection this one replaced: a swap, or the weld a cut-out replaced. */
+		replacesId: integer('replaces_id').references((): AnySQLiteColumn => ndeSelections.id),
+		/** Carried to a cut-out's replacement: a failure of it calls no tracers (341.3.4(f)). */
+		carried: integer('carried', { mode: 'boolean' }).notNull().default(false),
+		/** Why it was swapped in, or why it was cancelled. */
+		note: text('note'),
+		cancelledBy: text('cancelled_by').references(() => users.id)
 	},
 	(t) => [
 		index('nde_selections_joint').on(t.jointId),
-		index('nde_selections_project_lot').on(t.projectId, t.lot)
+		index('nde_selections_project_lot').on(t.projectId, t.lot),
+		index('nde_selections_lot').on(t.lotId, t.cancelledAt)
 	]
 );
+
+/** The tracers (or 100 %) a reject called for one welder, and how many the lot could not give. */
+export const ndeTracerCalls = sqliteTable(
+	'nde_tracer_calls',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		lotId: integer('lot_id')
+			.notNull()
+			.references(() => ndeLots.id, { onDelete: 'cascade' }),
+		selectionId: integer('selection_id')
+			.notNull()
+			.references(() => ndeSelections.id, { onDelete: 'cascade' }),
+		inspectionId: integer('inspection_id').references(() => inspections.id),
+		welderId: integer('welder_id')
+			.notNull()
+			.references(() => welders.id),
+		level: integer('level').notNull(),
+		wanted: integer('wanted').notNull(),
+		short: integer('short').notNull().default(0),
+		calledAt: integer('called_at').notNull().default(now),
+		/** Set when the reject that called them was corrected to an accept. */
+		withdrawnAt: integer('withdrawn_at')
+	},
+	(t) => [
+		index('nde_tracer_calls_lot').on(t.lotId),
+		index('nde_tracer_calls_selection').on(t.selectionId)
+	]
+);
+
+/** A request for examination sent to the NDE contractor, closed by the results. */
+export const ndeRequests = sqliteTable(
+	'nde_requests',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		sentTo: text('sent_to').notNull(),
+		note: text('note').notNull().default(''),
+		sentBy: text('sent_by').references(() => users.id),
+		sentAt: integer('sent_at').notNull().default(now),
+		closedAt: integer('closed_at')
+	},
+	(t) => [index('nde_requests_project').on(t.projectId, t.sentAt)]
+);
+
+/** One weld on a request: its selection, at the repair cycle it was asked for. */
+export const ndeRequestItems = sqliteTable(
+	'nde_request_items',
+	{
+		requestId: integer('request_id')
+			.notNull()
+			.references(() => ndeRequests.id, { onDelete: 'cascade' }),
+		selectionId: integer('selection_id')
+			.notNull()
+			.references(() => ndeSelections.id, { onDelete: 'cascade' }),
+		repairCycle: integer('repair_cycle').notNull().default(0),
+		inspectionId: integer('inspection_id').references(() => inspections.id)
+	},
+	(t) => [
+		primaryKey({ columns: [t.selectionId, t.repairCycle] }),
+		index('nde_request_items_request').on(t.requestId)
+	]
+);
+
+/**
+ * An indication an RT or UT report names, kept with the result as the acceptance engine read
+ * it (src/lib/acceptance/indications.ts): its type, each dimension as typed and in mm, and
+ * whether the engine's judgement of it, by the joint's criteria set, was a reject.
+ */
+export const ndeIndications = sqliteTable(
+	'nde_indications',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		inspectionId: integer('inspection_id')
+			.notNull()
+			.references(() => inspections.id, { onDelete: 'cascade' }),
+		/** The engine's indication type, e.g. `incompletePenetration`. */
+		type: text('type').$type<IndicationType>().notNull(),
+		lengthText: text('length_text').notNull().default(''),
+		lengthMm: real('length_mm'),
+		widthText: text('width_text').notNull().default(''),
+		widthMm: real('width_mm'),
+		depthText: text('depth_text').notNull().default(''),
+		depthMm: real('depth_mm'),
+		/** Start of the indication along the weld from the report's datum. */
+		positionText: text('position_text').notNull().default(''),
+		positionMm: real('position_mm'),
+		/** RT: the image darker than the thinnest adjacent parent metal. */
+		darker: integer('darker', { mode: 'boolean' }),
+		/** The engine's worst outcome on it (within, outside, judge); null where no limit reads it. */
+		outcome: text('outcome').$type<Verdict>(),
+		/** A reason for the reject: a finding on it (or on its kind together) the engine rejects. */
+		rejected: integer('rejected', { mode: 'boolean' }).notNull().default(false)
+	},
+	(t) => [index('nde_indications_inspection').on(t.inspectionId)]
+);
+
+/** The last weld each project's lots were formed from, so forming them again reads only new welds. */
+export const ndeLotMarks = sqliteTable('nde_lot_marks', {
+	projectId: integer('project_id')
+		.primaryKey()
+		.references(() => projects.id, { onDelete: 'cascade' }),
+	weldId: integer('weld_id').notNull().default(0)
+});
+
+export type NdeLot = typeof ndeLots.$inferSelect;
+export type NdeSelection = typeof ndeSelections.$inferSelect;
 
 export const exports = sqliteTable(
 	'exports',

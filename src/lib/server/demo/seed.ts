@@ -26,23 +26,13 @@ import { fitupReadings, visualReadings, type DemoOutcome } from './readings';
 import { judgeReadings } from '../inspections';
 import { passProcesses } from '../welds';
 import { weldNumberSortKey } from '$lib/weld-numbers';
+import { mulberry32 } from '$lib/random';
+import { seedDemoLots } from '../nde/demo';
 import { outsideDiameterMm } from '$lib/pipe-sizes';
 import { parseLength } from '$lib/units';
 import type { JointState } from '$lib/joint-state';
 import type { UnitSystem } from '../db/schema';
 import { stampKey } from '$lib/domain';
-
-/** Small, fast, seedable: the same seed gives the same job. */
-export function mulberry32(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
 
 const DAY = 86_400_000;
 /** The demo job's calendar is fixed, so the records are the same whatever today is. */
@@ -172,6 +162,8 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 				}
 				recordLastUse(tx, projectId);
 			});
+			// NDE lots in every stage, from the welds above.
+			seedDemoLots(tx);
 			audit.record({ action: 'seed', entity: 'database', after: { demo: true } }, tx);
 			return {
 				seeded: true,

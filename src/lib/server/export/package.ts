@@ -24,7 +24,9 @@ import { eq } from 'drizzle-orm';
 import { db, schema } from '../db';
 import * as storage from '../storage';
 import * as pins from '../pins';
+import * as nde from '../nde';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
+import { isComplete } from '$lib/joint-state';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
 import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
 import { preview, recordsAsOf, resolve } from './scope';
@@ -119,7 +121,7 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		pinsOf: (revisionId) =>
 			pins
 				.ofRevision(revisionId)
-				.filter((pin) => !job.request.acceptedOnly || pin.state === 'accepted')
+				.filter((pin) => !job.request.acceptedOnly || isComplete(pin.state))
 				.map((pin) => ({
 					pageIndex: pin.pageIndex,
 					x: pin.x,
@@ -147,13 +149,16 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	job.checkpoint();
 	job.onProgress(0.92, 'Inspection records');
 	const inspections = inspectionsCsv(job.request, drawings);
+	// NDE lots: every weld of each lot on these drawings, how it was selected, its report and result.
+	const ndeRegister = nde.registerCsv(drawings.map((d) => d.id));
 	job.checkpoint();
 
 	const files: { name: string; bytes: Uint8Array }[] = [
 		{ name: 'marked-up-set.pdf', bytes: set.bytes },
 		{ name: 'weld-log.xlsx', bytes: xlsx },
 		{ name: 'weld-log.csv', bytes: csv },
-		{ name: 'inspections.csv', bytes: inspections }
+		{ name: 'inspections.csv', bytes: inspections },
+		{ name: 'nde-register.csv', bytes: ndeRegister }
 	];
 	const problems = set.entries.filter((e) => e.problem);
 	const manifest = {

@@ -8,7 +8,7 @@ import { db, schema } from '../db';
 import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
 import { weldLogFilter } from '$lib/schemas/weld-log';
-import { correctionsOf, displayWeldNumber } from '$lib/joint-state';
+import { COMPLETE_STATES, correctionsOf, displayWeldNumber, isComplete } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
 import type { ScopeDrawing } from './scope';
 import { withEntryDates } from './zip-dates';
@@ -43,17 +43,20 @@ export function* weldLogRows(
 	request: ExportRequest,
 	drawings: readonly ScopeDrawing[]
 ) {
-	const state = request.acceptedOnly ? ('accepted' as const) : undefined;
+	// Accepted only: on the joint's own records or by its lot's sample.
+	function* keep(rows: Iterable<weldLog.WeldLogRow>) {
+		for (const row of rows) if (!request.acceptedOnly || isComplete(row.state)) yield row;
+	}
 	if (request.scope.all) {
-		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state }));
+		yield* keep(weldLog.iterate(projectId, weldLogFilter.parse({})));
 		return;
 	}
 	if (request.scope.area) {
-		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state, area: request.scope.area }));
+		yield* keep(weldLog.iterate(projectId, weldLogFilter.parse({ area: request.scope.area })));
 		return;
 	}
 	for (const drawing of drawings)
-		yield* weldLog.iterate(projectId, weldLogFilter.parse({ state, drawing: drawing.id }));
+		yield* keep(weldLog.iterate(projectId, weldLogFilter.parse({ drawing: drawing.id })));
 }
 
 export async function weldLogCsv(rows: Iterable<weldLog.WeldLogRow>): Promise<Buffer> {
@@ -146,7 +149,7 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 			.where(
 				and(
 					inArray(j.drawingId, ids.slice(start, start + CHUNK)),
-					request.acceptedOnly ? eq(j.state, 'accepted') : undefined
+					request.acceptedOnly ? inArray(j.state, [...COMPLETE_STATES]) : undefined
 				)
 			)
 			.orderBy(asc(j.drawingId), asc(j.sortKey), asc(i.inspectedAt), asc(i.id))

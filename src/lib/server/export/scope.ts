@@ -5,7 +5,8 @@
 import crypto from 'node:crypto';
 import { and, asc, count, desc, eq, inArray, ne } from 'drizzle-orm';
 import { db, schema } from '../db';
-import { emptyCounts } from '$lib/state-counts';
+import { completeJoints, emptyCounts } from '$lib/state-counts';
+import { COMPLETE_STATES } from '$lib/joint-state';
 import type { ExportPreview as Preview, ExportRequest } from '$lib/schemas/export';
 
 export type { Preview };
@@ -159,7 +160,7 @@ export function preview(projectId: number, request: ExportRequest): Preview {
 			.where(
 				and(
 					inArray(j.drawingId, drawingIds),
-					request.acceptedOnly ? eq(j.state, 'accepted') : undefined
+					request.acceptedOnly ? inArray(j.state, [...COMPLETE_STATES]) : undefined
 				)
 			)
 			.groupBy(j.state)
@@ -188,7 +189,7 @@ export function preview(projectId: number, request: ExportRequest): Preview {
 		revisions: revisions.length,
 		sheets: revisions.reduce((sum, rev) => sum + rev.sheets.length, 0),
 		joints: counts,
-		notAccepted: live - counts.accepted,
+		notAccepted: live - completeJoints(counts),
 		pinsToReview
 	};
 }

@@ -1,4 +1,4 @@
-import type { Rng } from './random';
+import type { Rng } from '$lib/random';
 import { pt, type Pen, type Pt } from './pen';
 import type { Rect } from './clearance';
 import type { DemoRevisionEntry, DemoSheetSpec, PaperSize } from './types';

@@ -1,4 +1,4 @@
-import type { Rng } from './random';
+import type { Rng } from '$lib/random';
 import { add, mul, pt, segmentDistance, type Pt } from './pen';
 
 /** Plant directions; up and down are elevation. */

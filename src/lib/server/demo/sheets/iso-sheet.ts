@@ -15,7 +15,7 @@ import {
 	type ScheduleName,
 	type Units
 } from './pipe-data';
-import type { Rng } from './random';
+import type { Rng } from '$lib/random';
 import type { DemoLine, DemoSheetSpec, DemoWeld } from './types';
 
 export interface LegPt {

@@ -41,7 +41,7 @@ import {
 	type Pt
 } from './pen';
 import { findPipeSize, lengthLabel, sizeLabel, wallLabel, type Units } from './pipe-data';
-import { createRng, mixSeed, type Rng } from './random';
+import { createRng, mixSeed, type Rng } from '$lib/random';
 import {
 	awayFrom,
 	dimensionClearance,

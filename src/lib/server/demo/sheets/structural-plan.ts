@@ -1,5 +1,5 @@
 import type { PageJob } from './page';
-import type { Rng } from './random';
+import type { Rng } from '$lib/random';
 import { SECTIONS, plate, type Plate, type Section } from './steel-data';
 
 export type EndDetail = 'endPlate' | 'clip' | 'basePlate' | 'capPlate' | 'plain';

@@ -3,7 +3,7 @@ import { drawFrame, drawRevisionCloud, inventInitials } from './frame';
 import { numberInFlowOrder, type PageJob, type PageOutcome, type SheetWeld } from './page';
 import { pt, type Pen, type Pt } from './pen';
 import type { Units } from './pipe-data';
-import { createRng, mixSeed } from './random';
+import { createRng, mixSeed } from '$lib/random';
 import { STEEL_KG_PER_MM3, chooseScale, steelLength, type Plate } from './steel-data';
 import { Elevation } from './structural-elevation';
 import { planMember, type FeatureKind, type Member } from './structural-plan';

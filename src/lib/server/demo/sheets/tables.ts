@@ -1,7 +1,7 @@
 import { drawTable, type Frame } from './frame';
 import { pt, type Pen } from './pen';
 import { feetInches, type Units } from './pipe-data';
-import type { Rng } from './random';
+import type { Rng } from '$lib/random';
 import { BUBBLE } from './symbols';
 import type { SheetWeld } from './page';
 import type { DemoLine, DemoSheetSpec } from './types';

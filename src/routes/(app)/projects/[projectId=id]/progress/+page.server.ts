@@ -1,5 +1,6 @@
 import * as weldLog from '$lib/server/weld-log';
 import * as drawings from '$lib/server/drawings';
+import * as nde from '$lib/server/nde';
 import type { PageServerLoad } from './$types';
 
 export const load = (async ({ parent, url }) => {
@@ -10,6 +11,7 @@ export const load = (async ({ parent, url }) => {
 	return {
 		title: `Progress · ${project.code}`,
 		areas,
-		progress: weldLog.progress(project.id, area)
+		progress: weldLog.progress(project.id, area),
+		repairRates: nde.repairRates(project.id)
 	};
 }) satisfies PageServerLoad;

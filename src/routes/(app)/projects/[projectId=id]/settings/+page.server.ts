@@ -17,11 +17,7 @@ export const load = (async ({ parent }) => {
 			defaultCriteriaSet: project.defaultCriteriaSet,
 			shopPrefix: project.weldNumberRule.shopPrefix,
 			fieldPrefix: project.weldNumberRule.fieldPrefix,
-			sequence: project.weldNumberRule.sequence,
-			lotGroupBy: project.ndeLotRule.groupBy,
-			rtPercent: project.ndeLotRule.percent.RT ?? 0,
-			utPercent: project.ndeLotRule.percent.UT ?? 0,
-			everyWelder: project.ndeLotRule.everyWelder
+			sequence: project.weldNumberRule.sequence
 		},
 		zod4(projectSettingsSchema)
 	);

@@ -2,6 +2,7 @@ import { fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import * as welders from '$lib/server/welders';
+import * as nde from '$lib/server/nde';
 import { formFailure } from '$lib/server/errors';
 import { can } from '$lib/permissions';
 import {
@@ -19,7 +20,8 @@ export const load = (async ({ locals }) => ({
 	title: 'Welders',
 	...welders.register(locals.projectId!),
 	canManage: can(locals.user!, 'welder.manage', locals.projectId!),
-	form: await superValidate(zod4(welderFormSchema), { id: 'create' })
+	form: await superValidate(zod4(welderFormSchema), { id: 'create' }),
+	repairRates: nde.repairRates(locals.projectId!)
 })) satisfies PageServerLoad;
 
 /** A refusal of the register (a stamp taken, a welder gone) shown on the form that asked. */
