@@ -179,6 +179,9 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			data: { scope: { all: true } }
 		});
 		const exportId = ((await started.json()) as { id: number }).id;
+		const wps = (await (await admin.get(`/api/projects/${projectId}/wps`)).json()) as {
+			items: { id: number }[];
+		};
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
@@ -186,6 +189,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
 			exportId: String(exportId),
+			wpsId: String(wps.items[0].id),
 			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
 			page: '0',
 			level: '0',
