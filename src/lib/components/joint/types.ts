@@ -1,5 +1,6 @@
 /** The joint as GET /api/joints/{id} returns it, for the joint card. */
 import type { CriteriaSet } from '$lib/acceptance';
+import type { WpsJointDesign } from '$lib/acceptance/types';
 import type { JointState } from '$lib/joint-state';
 
 export interface JointDetail {
@@ -20,6 +21,20 @@ export interface JointDetail {
 	requiredSizeMm: number | null;
 	material: string;
 	wps: string;
+	/** the joint's WPS in the project's register, its joint design, and the approved choices */
+	wpsId: number | null;
+	wpsEntry: {
+		id: number;
+		number: string;
+		revision: string;
+		label: string;
+		status: 'draft' | 'approved' | 'superseded';
+		processes: string[];
+		design: WpsJointDesign;
+	} | null;
+	/** where the joint lies outside the ranges its WPS qualifies */
+	wpsFlags: { field: 'thickness' | 'diameter' | 'material'; message: string }[];
+	wpsChoices: { id: number; label: string; title: string }[];
 	criteriaSetId: string;
 	/** the project's own set the joint is judged by; null for a built-in set */
 	criteriaSet: CriteriaSet | null;
