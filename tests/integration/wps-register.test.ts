@@ -205,3 +205,74 @@ describe('the register page', () => {
 		expect(wps.list(job.projectId).some((r) => r.number === 'WPS-PX-10')).toBe(false);
 	});
 });
+describe('a WPS register imported from CSV', () => {
+	const good = [
+		'WPS number,Revision,Status,Processes,Thickness min,Thickness max,Root opening min,Root opening max',
+		'WPS-CSV-01,0,approved,GTAW/SMAW,3,20,2,4',
+		'WPS-CSV-02,1,draft,FCAW,6,40,,'
+	].join('\r\n');
+
+	it('previews without storing, then adds every line in one go, audited', () => {
+		const before = wps.list(job.projectId).length;
+		const preview = wps.importCsv(job.projectId, good, { apply: false, userId: job.users.admin });
+		expect(preview).toMatchObject({ ok: true, problems: [] });
+		expect(preview.rows.map((r) => r.label)).toEqual(['WPS-CSV-01 rev 0', 'WPS-CSV-02 rev 1']);
+		expect(wps.list(job.projectId).length).toBe(before);
+
+		const applied = wps.importCsv(job.projectId, good, { apply: true, userId: job.users.admin });
+		expect(applied.ok).toBe(true);
+		expect(wps.list(job.projectId).length).toBe(before + 2);
+		const created = db
+			.select()
+			.from(schema.auditEvents)
+			.where(and(eq(schema.auditEvents.entity, 'wps'), eq(schema.auditEvents.action, 'create')))
+			.all();
+		expect(created.some((a) => (a.after as { number: string }).number === 'WPS-CSV-02')).toBe(true);
+	});
+
+	it('stores nothing when one line is bad, naming its line and column', () => {
+		const before = wps.list(job.projectId).length;
+		const bad = [
+			'WPS number,Revision,Processes,Thickness min,Thickness max',
+			'WPS-CSV-10,0,GTAW,3,20',
+			'WPS-CSV-11,0,GTAW,20,3',
+			'WPS-CSV-12,0,SMAW,3,20'
+		].join('\n');
+		const result = wps.importCsv(job.projectId, bad, { apply: true, userId: job.users.admin });
+		expect(result.ok).toBe(false);
+		expect(result.problems).toEqual([
+			expect.objectContaining({ line: 3, column: 'Thickness min' })
+		]);
+		expect(wps.list(job.projectId).length).toBe(before);
+	});
+
+	it('refuses a line whose WPS is already in the register', () => {
+		const result = wps.importCsv(job.projectId, good, { apply: true, userId: job.users.admin });
+		expect(result.ok).toBe(false);
+		expect(result.problems.map((p) => [p.line, p.column])).toEqual([
+			[2, 'WPS number'],
+			[3, 'WPS number']
+		]);
+	});
+
+	it('is previewed and applied by the page actions, a manager only by the route table', async () => {
+		const csv = good.replace(/CSV-0/g, 'CSV-3');
+		const send = async (action: 'preview' | 'import') => {
+			const body = new FormData();
+			body.set('file', new File([csv], 'wps.csv', { type: 'text/csv' }));
+			return (await (actions[action] as unknown as (e: never) => Promise<unknown>)({
+				request: new Request(`http://localhost/projects/${job.projectId}/wps?/${action}`, {
+					method: 'POST',
+					body
+				}),
+				params: { projectId: String(job.projectId) },
+				locals: { user: users.principal(job.users.admin), projectId: job.projectId }
+			} as never)) as { csvImport: { ok: boolean; applied: boolean; rows: unknown[] } };
+		};
+		const preview = await send('preview');
+		expect(preview.csvImport).toMatchObject({ ok: true, applied: false });
+		const applied = await send('import');
+		expect(applied.csvImport).toMatchObject({ ok: true, applied: true });
+		expect(wps.list(job.projectId).some((r) => r.number === 'WPS-CSV-31')).toBe(true);
+	});
+});

@@ -161,8 +161,13 @@ export const ROUTES: Record<string, RouteRules> = {
 	// -- the WPS register: entries below --
 	'/(app)/projects/[projectId=id]/wps': {
 		GET: project('project.read'),
-		actions: { save: project('wps.manage') }
+		actions: {
+			save: project('wps.manage'),
+			preview: project('wps.manage'),
+			import: project('wps.manage')
+		}
 	},
+	'/(app)/projects/[projectId=id]/wps/template.csv': { GET: project('project.read') },
 	'/api/projects/[projectId=id]/wps': { GET: project('project.read'), POST: project('wps.manage') },
 	'/api/wps/[wpsId=id]': { GET: project('project.read'), PATCH: project('wps.manage') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },

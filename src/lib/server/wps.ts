@@ -19,6 +19,7 @@ import {
 	type WpsTyped
 } from '$lib/wps-register';
 import type { WpsRow } from './db/schema';
+import { readWpsCsv, type WpsCsvProblem } from '$lib/wps-csv';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 type Reader = Pick<Db, 'select'>;
@@ -247,3 +248,50 @@ function stripUndefined<T extends object>(value: T): Partial<T> {
 export const fieldLabel = (field: WpsField) => WPS_FIELD_LABELS[field];
 
 export { insert as insertInTransaction };
+
+export interface WpsImportPreview {
+	ok: boolean;
+	/** the WPS lines read, each with its line, label and status */
+	rows: { line: number; label: string; status: string; processes: string[] }[];
+	problems: WpsCsvProblem[];
+}
+
+/**
+ * A WPS register CSV checked against the file's own rules and the project's register (a number
+ * and revision already there is a problem of its line); with `apply`, and no problem, every
+ * WPS is added in one transaction. Any problem and nothing is stored.
+ */
+export function importCsv(
+	projectId: number,
+	text: string,
+	options: { apply: boolean; userId: string | null }
+): WpsImportPreview {
+	return db.transaction((tx) => {
+		const read = readWpsCsv(text, projects.unitsOf(projectId, tx));
+		if (!read.ok) return { ok: false, rows: [], problems: read.problems };
+		const existing = new Set(
+			list(projectId, tx).map((r) => `${r.number}\u0000${r.revision}`.toUpperCase())
+		);
+		const problems: WpsCsvProblem[] = read.rows
+			.filter(({ record }) =>
+				existing.has(`${record.number}\u0000${record.revision}`.toUpperCase())
+			)
+			.map(({ line, record }) => ({
+				line,
+				column: WPS_FIELD_LABELS.number,
+				message: `WPS ${wpsLabel(record)} is already in this project's register.`
+			}));
+		const rows = read.rows.map(({ line, record }) => ({
+			line,
+			label: wpsLabel(record),
+			status: record.status,
+			processes: record.processes
+		}));
+		if (problems.length > 0) return { ok: false, rows, problems };
+		if (options.apply) {
+			for (const { record } of read.rows) insert(tx, projectId, record, options.userId);
+			linkTypedJoints(tx, projectId);
+		}
+		return { ok: true, rows, problems: [] };
+	});
+}
