@@ -291,3 +291,13 @@ describe('POST /api/acceptance/evaluate with wps', () => {
 		expect((await without.json()).field).toBe('projectId');
 	});
 });
+
+describe('the weld log', () => {
+	it('names the register WPS of a joint by number and revision', async () => {
+		const { weldLogQuery } = await import('$lib/schemas/weld-log');
+		const weldLog = await import('$lib/server/weld-log');
+		const joint = jointNaming(approvedId);
+		const rows = [...weldLog.iterate(job.projectId, weldLogQuery.parse({}))];
+		expect(rows.find((r) => r.id === joint.id)?.wps).toBe('WPS-J-01 rev 2');
+	});
+});
