@@ -161,10 +161,11 @@ export function parseTemperature(
 	return { ok: true, value: { celsius: Math.round(celsius * 10) / 10, text } };
 }
 
-/** A typed temperature as written in an imperial or metric project: `50 °F (10 °C)`. */
-export function showTemperature(t: WpsTemperature): string {
-	const fahrenheit = Math.round((t.celsius * 9) / 5 + 32);
-	return `${Math.round(t.celsius)} °C (${fahrenheit} °F)`;
+/** A temperature in the project's scale first: `50 °F (10 °C)` or `10 °C (50 °F)`. */
+export function showTemperature(t: WpsTemperature, units: UnitSystem): string {
+	const fahrenheit = `${Math.round((t.celsius * 9) / 5 + 32)} °F`;
+	const celsius = `${Math.round(t.celsius)} °C`;
+	return units === 'imperial' ? `${fahrenheit} (${celsius})` : `${celsius} (${fahrenheit})`;
 }
 
 function readRange(
