@@ -167,7 +167,9 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 			wps: j.wps,
 			weldWps: w.wps,
 			// The register's WPS the joint names, as number and revision.
-			registerWps: sql<string | null>`(select ${schema.wps.number} || ' rev ' || ${schema.wps.revision} from ${schema.wps} where ${schema.wps.id} = ${j.wpsId})`,
+			registerWps: sql<
+				string | null
+			>`(select ${schema.wps.number} || ' rev ' || ${schema.wps.revision} from ${schema.wps} where ${schema.wps.id} = ${j.wpsId})`,
 			jointLine: j.line,
 			drawingLine: d.line,
 			area: d.area,
