@@ -181,6 +181,9 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		const exportId = ((await started.json()) as { id: number }).id;
 		const lot = (await (await admin.get(`/api/projects/${projectId}/nde/lots?pageSize=1`)).json())
 			.items[0];
+		const wps = (await (await admin.get(`/api/projects/${projectId}/wps`)).json()) as {
+			items: { id: number }[];
+		};
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
@@ -189,6 +192,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			pinId: String(pin.pinId),
 			exportId: String(exportId),
 			lotId: String(lot.id),
+			wpsId: String(wps.items[0].id),
 			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
 			page: '0',
 			level: '0',

@@ -81,7 +81,25 @@ export const evaluateRequestSchema = z.object({
 	}),
 	units: choice(unitSystems, 'The units').default('imperial'),
 	joint: jointSchema,
-	readings: readingsSchema.default({})
+	readings: readingsSchema.default({}),
+	/** a fit-up also judged against this WPS of the project's register (its number) */
+	wps: z
+		.string({
+			error: 'wps is the number of a WPS in the project\'s register, such as "WPS-CS-01".'
+		})
+		.trim()
+		.min(1, {
+			error: 'wps is the number of a WPS in the project\'s register, such as "WPS-CS-01".'
+		})
+		.max(40, { error: 'A WPS number has at most 40 characters.' })
+		.optional(),
+	/** its revision; by default the approved one */
+	wpsRevision: z
+		.string({ error: 'wpsRevision is the WPS revision as text, such as "1".' })
+		.trim()
+		.min(1, { error: 'wpsRevision is the WPS revision as text, such as "1".' })
+		.max(20, { error: 'A WPS revision has at most 20 characters.' })
+		.optional()
 });
 
 export type EvaluateRequest = z.infer<typeof evaluateRequestSchema>;

@@ -38,6 +38,12 @@ export const jointFields = z.object({
 	requiredSize: text('The required size', 40),
 	material: text('The material', 120),
 	wps: text('The WPS', 60),
+	/** The joint's WPS from the project's register; null names none. */
+	wpsId: z
+		.number({ error: "Choose a WPS from the project's register." })
+		.int({ error: "Choose a WPS from the project's register." })
+		.min(1, { error: "Choose a WPS from the project's register." })
+		.nullable(),
 	/** A built-in set or one of the project's own; the server checks it belongs to the project. */
 	criteriaSetId: z
 		.string({ error: 'Choose one of the criteria sets.' })

@@ -8,6 +8,9 @@ import { asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { AnySQLiteColumn } from 'drizzle-orm/sqlite-core';
 import { db, schema } from './db';
 import * as audit from './audit';
+import * as wpsRegister from './wps';
+import { jointDesign } from '$lib/wps-register';
+import type { WpsJointDesign } from '$lib/acceptance/types';
 import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
@@ -59,11 +62,12 @@ export function judgeReadings(
 	joint: JointInput,
 	stage: Stage,
 	texts: ReadingTexts,
-	units: UnitSystem
+	units: UnitSystem,
+	wps?: WpsJointDesign
 ) {
 	const set = typeof criteria === 'string' ? getCriteriaSet(criteria) : criteria;
 	if (!set) throw unknownCriteriaSet(criteria as string);
-	const result = evaluate(set, joint, stage, texts, { units });
+	const result = evaluate(set, joint, stage, texts, { units, wps });
 	if (!result.ok) {
 		const [first] = result.errors;
 		throw new DomainError(first.message, 400, first.field);
@@ -156,12 +160,16 @@ function judged(tx: Tx, joint: Joint, input: RecordInspection) {
 	// A project set at its latest version; the row keeps that version beside the set's id.
 	const set = criteriaSets.resolve(joint.projectId, joint.criteriaSetId, undefined, tx);
 	if (!set) throw unknownCriteriaSet(joint.criteriaSetId);
+	// A fit-up is also judged against the joint design of the WPS the joint names.
+	const wpsRow =
+		input.stage === 'fitup' && joint.wpsId ? wpsRegister.row(joint.wpsId, tx) : undefined;
 	const result = judgeReadings(
 		set,
 		jointInput(joint),
 		input.stage,
 		input.readings,
-		projects.unitsOf(joint.projectId, tx)
+		projects.unitsOf(joint.projectId, tx),
+		wpsRow ? jointDesign(wpsRow) : undefined
 	);
 	return {
 		readings: result.readings,

@@ -13,6 +13,8 @@ import * as criteriaSets from './criteria-sets';
 import * as events from './events';
 import { lotSample } from './nde/standing';
 import * as nde from './nde';
+import * as wpsRegister from './wps';
+import { jointDesign, rangeFlags, wpsLabel } from '$lib/wps-register';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -228,6 +230,8 @@ export function detail(jointId: number) {
 	const replacedBy =
 		db.select({ id: j.id, number: j.number }).from(j).where(eq(j.replacesJointId, jointId)).get() ??
 		null;
+	const wpsRow = joint.wpsId ? wpsRegister.row(joint.wpsId) : undefined;
+	const wpsRecord = wpsRow ? wpsRegister.recordOf(wpsRow) : undefined;
 	// The hold points called on this weld and not yet inspected: who called them, when, why.
 	const openRequests = db
 		.select({
@@ -249,6 +253,24 @@ export function detail(jointId: number) {
 	return {
 		...joint,
 		openRequests,
+		// The WPS the joint names, its joint design for the card's live verdict, and where the
+		// joint lies outside the ranges it qualifies.
+		wpsEntry:
+			wpsRow && wpsRecord
+				? {
+						id: wpsRow.id,
+						number: wpsRow.number,
+						revision: wpsRow.revision,
+						label: wpsLabel(wpsRow),
+						status: wpsRow.status,
+						processes: wpsRecord.processes,
+						design: jointDesign(wpsRecord)
+					}
+				: null,
+		wpsFlags: wpsRecord ? rangeFlags(wpsRecord, joint, projects.unitsOf(joint.projectId)) : [],
+		wpsChoices: wpsRegister
+			.approved(joint.projectId)
+			.map((w) => ({ id: w.id, label: wpsLabel(w), title: w.title })),
 		// A project's own set travels with the joint, so the card's live verdict judges by it.
 		criteriaSet: criteriaSets.isBuiltIn(joint.criteriaSetId)
 			? null
@@ -273,6 +295,25 @@ export function detail(jointId: number) {
 }
 
 // Writing -------------------------------------------------------------------------------
+
+/**
+ * The register's WPS a joint is to name: one of the project's, approved (a superseded or
+ * draft one only where the joint already names it). Its number becomes the joint's WPS text.
+ */
+function wpsChoiceOrThrow(projectId: number, wpsId: number, currentId: number | null, tx: Reader) {
+	const chosen = wpsRegister.row(wpsId, tx);
+	if (!chosen || chosen.projectId !== projectId) {
+		throw new DomainError("Choose a WPS from this project's register.", 400, 'wpsId');
+	}
+	if (chosen.status !== 'approved' && chosen.id !== currentId) {
+		throw new DomainError(
+			`WPS ${wpsLabel(chosen)} is ${chosen.status}, not approved: choose an approved WPS.`,
+			400,
+			'wpsId'
+		);
+	}
+	return chosen;
+}
 
 function lengthsOrThrow(fields: Partial<JointFields>, units: UnitSystem) {
 	const result = jointLengths(fields, units);
@@ -383,6 +424,10 @@ export function place(input: PlacePin, userId: string) {
 				'number'
 			);
 		}
+		const wpsChosen =
+			input.joint.wpsId != null
+				? wpsChoiceOrThrow(revision.projectId, input.joint.wpsId, null, tx)
+				: undefined;
 		const now = Date.now();
 		const joint = tx
 			.insert(j)
@@ -396,7 +441,8 @@ export function place(input: PlacePin, userId: string) {
 				line,
 				spool: input.joint.spool ?? '',
 				material: input.joint.material ?? '',
-				wps: input.joint.wps ?? '',
+				wps: wpsChosen?.number ?? input.joint.wps ?? '',
+				wpsId: wpsChosen?.id ?? null,
 				criteriaSetId: input.joint.criteriaSetId ?? revision.criteria,
 				ndeRequired: input.joint.ndeRequired ?? '',
 				...lengths,
@@ -482,6 +528,16 @@ export function update(
 		);
 		if (plain.criteriaSetId !== undefined && plain.criteriaSetId !== joint.criteriaSetId) {
 			checkCriteriaSet(joint.projectId, plain.criteriaSetId, 'criteriaSetId', tx);
+		}
+		if (plain.wpsId !== undefined && plain.wpsId !== joint.wpsId) {
+			if (plain.wpsId !== null) {
+				const chosen = wpsChoiceOrThrow(joint.projectId, plain.wpsId, joint.wpsId, tx);
+				plain.wps = chosen.number;
+			} else plain.wps ??= '';
+		} else if (plain.wpsId === undefined && plain.wps !== undefined && joint.wpsId !== null) {
+			// Text typed over a WPS of the register leaves the register's WPS.
+			const current = wpsRegister.row(joint.wpsId, tx);
+			if (current && plain.wps.trim() !== current.number) plain.wpsId = null;
 		}
 		if (number && number !== joint.number) {
 			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
@@ -596,6 +652,7 @@ const CARRIED = [
 	'requiredSizeMm',
 	'material',
 	'wps',
+	'wpsId',
 	'criteriaSetId',
 	'ndeRequired'
 ] as const;

@@ -158,6 +158,18 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('criteria.manage')
 	},
 	'/api/projects/[projectId=id]/criteria-sets/[setId]': { GET: project('project.read') },
+	// -- the WPS register: entries below --
+	'/(app)/projects/[projectId=id]/wps': {
+		GET: project('project.read'),
+		actions: {
+			save: project('wps.manage'),
+			preview: project('wps.manage'),
+			import: project('wps.manage')
+		}
+	},
+	'/(app)/projects/[projectId=id]/wps/template.csv': { GET: project('project.read') },
+	'/api/projects/[projectId=id]/wps': { GET: project('project.read'), POST: project('wps.manage') },
+	'/api/wps/[wpsId=id]': { GET: project('project.read'), PATCH: project('wps.manage') },
 	'/api/acceptance/evaluate': { POST: SIGNED_IN },
 	'/api/acceptance/criteria': { GET: SIGNED_IN },
 	'/api/tokens/[tokenId=id]': { DELETE: SIGNED_IN },

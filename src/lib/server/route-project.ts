@@ -39,6 +39,14 @@ function projectOfPin(pinId: number): number | undefined {
 		.get()?.projectId;
 }
 
+function projectOfWps(wpsId: number): number | undefined {
+	return db
+		.select({ projectId: schema.wps.projectId })
+		.from(schema.wps)
+		.where(eq(schema.wps.id, wpsId))
+		.get()?.projectId;
+}
+
 function projectOfExport(exportId: number): number | undefined {
 	return db
 		.select({ projectId: schema.exports.projectId })
@@ -90,6 +98,7 @@ export function projectOf(params: Partial<Record<string, string>>): number | nul
 	if (params.pinId) found.add(projectOfPin(Number(params.pinId)));
 	if (params.exportId) found.add(projectOfExport(Number(params.exportId)));
 	if (params.lotId) found.add(projectOfLot(Number(params.lotId)));
+	if (params.wpsId) found.add(projectOfWps(Number(params.wpsId)));
 	if (found.size !== 1) return null;
 	const [projectId] = found;
 	return projectId ?? null;

@@ -175,6 +175,10 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 			material: j.material,
 			wps: j.wps,
 			weldWps: w.wps,
+			// The register's WPS the joint names, as number and revision.
+			registerWps: sql<
+				string | null
+			>`(select ${schema.wps.number} || ' rev ' || ${schema.wps.revision} from ${schema.wps} where ${schema.wps.id} = ${j.wpsId})`,
 			jointLine: j.line,
 			drawingLine: d.line,
 			area: d.area,
@@ -265,7 +269,7 @@ function rowsOf(ids: number[]): WeldLogRow[] {
 				size: row.size,
 				thickness: row.thickness,
 				material: row.material,
-				wps: row.weldWps || row.wps,
+				wps: row.weldWps || row.registerWps || row.wps,
 				line: row.jointLine || row.drawingLine,
 				area: row.area,
 				system: row.system,

@@ -23,41 +23,13 @@ import { addDays, checkQualification, type QualificationCheck } from '$lib/welde
 /** The continuity rules, for the callers that knew them here. */
 export { checkQualification, continuityValidThrough } from '$lib/welder-qualification';
 import { stampKey } from '$lib/domain';
+import { isKnownProcess, normalProcess } from '$lib/processes';
+import { unlistedProcesses } from '$lib/wps-register';
+import * as wpsRegister from './wps';
 import type { RecordWeld } from '$lib/schemas/inspection';
 import { WELD_PASSES, type Joint, type WeldPass } from './db/schema';
 
 // Processes -------------------------------------------------------------------------------
-
-/**
- * ISO 4063 reference numbers, as metric WPSs name processes, to the AWS A3.0 / ASME IX letters
- * the qualification records use. Unconfirmed; 138 (metal-cored wire) counts as GMAW in both
- * codes' process lists.
- */
-const ISO_4063: Readonly<Record<string, string>> = {
-	'111': 'SMAW',
-	'114': 'FCAW',
-	'121': 'SAW',
-	'131': 'GMAW',
-	'135': 'GMAW',
-	'136': 'FCAW',
-	'138': 'GMAW',
-	'141': 'GTAW',
-	'15': 'PAW'
-};
-
-/** Arc and gas processes as AWS A3.0 names them; a suffix (`FCAW-G`) is kept as written. */
-const PROCESS_LETTERS = ['SMAW', 'GTAW', 'GMAW', 'FCAW', 'SAW', 'PAW', 'ESW', 'EGW', 'OFW'];
-
-function normalProcess(part: string): string | null {
-	const name = part.trim().toUpperCase();
-	if (ISO_4063[name]) return ISO_4063[name];
-	return /^[A-Z]{2,5}(-[A-Z0-9]{1,3})?$/.test(name) ? name : null;
-}
-
-function isKnownProcess(part: string): boolean {
-	const name = part.trim().toUpperCase();
-	return name in ISO_4063 || PROCESS_LETTERS.includes(name.split('-')[0]);
-}
 
 export type PassProcesses = Record<WeldPass, string>;
 
@@ -282,8 +254,14 @@ export function record(
 			);
 		}
 
-		const wps = input.wps || joint.wps;
-		const processes = input.process ? passProcesses(input.process) : processFromWps(wps);
+		// The joint's WPS from the register names the processes; typed text may name them too.
+		const wpsRow = joint.wpsId ? wpsRegister.row(joint.wpsId, tx) : undefined;
+		const wps = input.wps || (wpsRow ? `${wpsRow.number} rev ${wpsRow.revision}` : joint.wps);
+		const processes = input.process
+			? passProcesses(input.process)
+			: wpsRow && !input.wps
+				? passProcesses(wpsRow.processes.join('/'))
+				: processFromWps(wps);
 		if (!processes) {
 			throw new DomainError(
 				input.process
@@ -338,14 +316,24 @@ export function record(
 		const problems = uses.filter((u) => !u.check.ok);
 		const hard = problems.find((p) => !p.check.ok && !p.check.overridable);
 		if (hard) throw new DomainError(problemText(hard), 409, `welders.${hard.pass}`);
+		// A process the joint's WPS does not list is refused as a lapsed qualification is.
+		const unlisted = wpsRow
+			? unlistedProcesses(
+					wpsRow,
+					passes.map((pass) => processes[pass])
+				)
+			: [];
+		const wpsProblem = unlisted.length
+			? `WPS ${wpsRow!.number} rev ${wpsRow!.revision} does not list ${unlisted.join(' or ')} (it lists ${wpsRow!.processes.join(', ')}).`
+			: null;
 		const mayOverride = can(user, 'weld.override', joint.projectId);
-		if (problems.length > 0) {
-			const told = problems.map(problemText).join(' ');
+		if (problems.length > 0 || wpsProblem) {
+			const told = [...(wpsProblem ? [wpsProblem] : []), ...problems.map(problemText)].join(' ');
 			if (!input.override) {
 				throw new DomainError(
-					`${told} Renew the qualification, or ${mayOverride ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
+					`${told} ${wpsProblem && problems.length === 0 ? 'Weld to a WPS that lists the process' : 'Renew the qualification'}, or ${mayOverride ? 'record the weld with an override reason' : 'ask an administrator to record the weld with an override reason'}.`,
 					409,
-					`welders.${problems[0].pass}`
+					problems.length > 0 ? `welders.${problems[0].pass}` : 'process'
 				);
 			}
 			if (!mayOverride) {
@@ -356,7 +344,7 @@ export function record(
 				);
 			}
 		}
-		const overrideReason = problems.length > 0 ? input.override!.reason : null;
+		const overrideReason = problems.length > 0 || wpsProblem ? input.override!.reason : null;
 
 		const now = Date.now();
 		const weld = tx
@@ -425,7 +413,12 @@ export function record(
 					process: weld.process,
 					welders: Object.fromEntries(assigned.map((a) => [a.pass, a.welder.stamp])),
 					...(overrideReason
-						? { override: { reason: overrideReason, refused: problems.map(problemText) } }
+						? {
+								override: {
+									reason: overrideReason,
+									refused: [...(wpsProblem ? [wpsProblem] : []), ...problems.map(problemText)]
+								}
+							}
 						: {}),
 					state: after.state
 				}

@@ -18,7 +18,7 @@ function toDraft(j: JointDetail): JointDraft {
 		thickness: j.thicknessText,
 		requiredSize: j.requiredSizeText,
 		material: j.material,
-		wps: j.wps,
+		wpsId: j.wpsId,
 		criteriaSetId: j.criteriaSetId,
 		ndeRequired: j.ndeRequired
 	};

@@ -22,6 +22,7 @@ import {
 	type ReadingId,
 	type Stage
 } from '$lib/acceptance';
+import type { WpsJointDesign } from '$lib/acceptance/types';
 import { checkDefinitions } from '$lib/acceptance/checks';
 import {
 	formatAngle,
@@ -526,4 +527,6 @@ export interface StageFormProps {
 	readings?: ReadingEntries;
 	/** the latest evaluation, for the form around it; undefined for an unknown criteria set */
 	evaluation?: EvaluationResult;
+	/** the joint design of the joint's WPS, which a fit-up is also judged against */
+	wps?: WpsJointDesign;
 }

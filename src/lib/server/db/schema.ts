@@ -37,6 +37,7 @@ import type { LimitOverride } from '../../acceptance/derive';
 import type { LotGrouping, LotRule } from '../../nde/extent';
 import type { LotStage, SelectionReason } from '../../nde/sampling';
 import type { TileFormat, TileLevel, TileStatus } from '../../sheet-tiles';
+import type { WpsRanges, WpsStatus, WpsTemperature } from '../../wps-register';
 
 export type { ProjectRole };
 export {
@@ -230,6 +231,38 @@ export const criteriaSets = sqliteTable(
 	(t) => [index('criteria_sets_project').on(t.projectId)]
 );
 
+/**
+ * The project's WPS register: one row per number and revision. Lists are JSON arrays; the
+ * ranges keep each end's value (mm or degrees) beside the text as typed, in the project's
+ * units; temperatures keep °C beside the text. Rules in `src/lib/wps-register.ts`.
+ */
+export const wps = sqliteTable(
+	'wps',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		projectId: integer('project_id')
+			.notNull()
+			.references(() => projects.id, { onDelete: 'cascade' }),
+		number: text('number').notNull(),
+		revision: text('revision').notNull(),
+		status: text('status').$type<WpsStatus>().notNull().default('draft'),
+		title: text('title').notNull().default(''),
+		processes: text('processes', { mode: 'json' }).$type<string[]>().notNull(),
+		materialGroups: text('material_groups', { mode: 'json' }).$type<string[]>().notNull(),
+		ranges: text('ranges', { mode: 'json' }).$type<WpsRanges>().notNull(),
+		grooveType: text('groove_type').notNull().default(''),
+		preheatMin: text('preheat_min', { mode: 'json' }).$type<WpsTemperature | null>(),
+		interpassMax: text('interpass_max', { mode: 'json' }).$type<WpsTemperature | null>(),
+		fillerClasses: text('filler_classes', { mode: 'json' }).$type<string[]>().notNull(),
+		pqrs: text('pqrs', { mode: 'json' }).$type<string[]>().notNull(),
+		version: integer('version').notNull().default(1),
+		createdBy: text('created_by').references(() => users.id),
+		createdAt: createdAt(),
+		updatedAt: integer('updated_at').notNull().default(now)
+	},
+	(t) => [uniqueIndex('wps_project_number_revision').on(t.projectId, t.number, t.revision)]
+);
+
 // Drawings ----------------------------------------------------------------------------
 
 export const drawings = sqliteTable(
@@ -373,7 +406,10 @@ export const joints = sqliteTable(
 		requiredSizeText: text('required_size_text').notNull().default(''),
 		requiredSizeMm: real('required_size_mm'),
 		material: text('material').notNull().default(''),
+		/** The WPS as once typed; kept readable where it names no WPS of the register. */
 		wps: text('wps').notNull().default(''),
+		/** The joint's WPS from the project's register. */
+		wpsId: integer('wps_id').references((): AnySQLiteColumn => wps.id),
 		criteriaSetId: text('criteria_set_id').notNull(),
 		/** NDE methods this joint must pass in full, e.g. `RT+MT`; sampling adds to it. */
 		ndeRequired: text('nde_required').notNull().default(''),
@@ -962,6 +998,7 @@ export type Drawing = typeof drawings.$inferSelect;
 export type Revision = typeof revisions.$inferSelect;
 export type Page = typeof pages.$inferSelect;
 export type Joint = typeof joints.$inferSelect;
+export type WpsRow = typeof wps.$inferSelect;
 export type Pin = typeof pins.$inferSelect;
 export type Weld = typeof welds.$inferSelect;
 export type Welder = typeof welders.$inferSelect;

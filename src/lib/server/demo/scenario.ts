@@ -4,6 +4,7 @@
  * company, person or drawing.
  */
 import type { DemoSheetSpec } from './sheets';
+import type { WpsTyped } from '../../wps-register';
 import type { ProjectRole, UnitSystem } from '../db/schema';
 
 export const DEMO_PASSWORD = 'tacksheet-demo';
@@ -69,6 +70,8 @@ export interface DemoProject {
 	defaultCriteriaSet: string;
 	drawings: DemoDrawing[];
 	welders: DemoWelder[];
+	/** The project's WPS register, as typed on its form (invented procedures). */
+	wpsRegister: Partial<WpsTyped>[];
 }
 
 /** What the sheet generator needs to draw one revision of a demo drawing (optionally reseeded). */
@@ -146,6 +149,67 @@ export const LARCHMERE: DemoProject = {
 	site: 'Larchmere Works, Bay 4',
 	units: 'imperial',
 	defaultCriteriaSet: 'asme-b31.3-normal',
+	wpsRegister: [
+		{
+			number: 'WPS-CS-01',
+			revision: '0',
+			status: 'superseded',
+			title: 'Carbon steel pipe, open root',
+			processes: 'GTAW/SMAW',
+			materialGroups: 'P1',
+			thicknessMin: '3/16',
+			thicknessMax: '3/4',
+			diameterMin: '2',
+			grooveType: 'Single-V',
+			rootOpeningMin: '3/32',
+			rootOpeningMax: '1/8',
+			rootFaceMin: '1/32',
+			rootFaceMax: '1/16',
+			bevelAngleMin: '35',
+			bevelAngleMax: '40',
+			preheatMin: '50',
+			interpassMax: '600',
+			fillerClasses: 'ER70S-2; E7018',
+			pqrs: 'PQR-CS-101'
+		},
+		{
+			number: 'WPS-CS-01',
+			revision: '1',
+			status: 'approved',
+			title: 'Carbon steel pipe, open root',
+			processes: 'GTAW/SMAW',
+			materialGroups: 'P1',
+			thicknessMin: '1/8',
+			thicknessMax: '1-1/2',
+			diameterMin: '2',
+			grooveType: 'Single-V',
+			rootOpeningMin: '1/16',
+			rootOpeningMax: '1/8',
+			rootFaceMin: '1/32',
+			rootFaceMax: '3/32',
+			bevelAngleMin: '35',
+			bevelAngleMax: '40',
+			preheatMin: '50',
+			interpassMax: '600',
+			fillerClasses: 'ER70S-2; E7018',
+			pqrs: 'PQR-CS-101; PQR-CS-104'
+		},
+		{
+			number: 'WPS-ST-04',
+			revision: '0',
+			status: 'approved',
+			title: 'Structural steel, fillet and groove, gas-shielded flux core',
+			processes: 'FCAW',
+			materialGroups: 'P1',
+			thicknessMin: '1/8',
+			thicknessMax: '2',
+			grooveType: 'Fillet; single-bevel CJP',
+			preheatMin: '50',
+			interpassMax: '550',
+			fillerClasses: 'E71T-1C',
+			pqrs: 'PQR-ST-11'
+		}
+	],
 	welders: [
 		{
 			stamp: 'B14',
@@ -436,6 +500,45 @@ export const VELLMAR: DemoProject = {
 	site: 'Vellmar Fjord Terminal, tank farm 3',
 	units: 'metric',
 	defaultCriteriaSet: 'iso-5817-c',
+	wpsRegister: [
+		{
+			number: 'WPS-VFT-02',
+			revision: '3',
+			status: 'approved',
+			title: 'Non-alloy pipe, TIG root, MMA fill and cap',
+			processes: '141/111',
+			materialGroups: '1.1',
+			thicknessMin: '3 mm',
+			thicknessMax: '20 mm',
+			diameterMin: '25 mm',
+			grooveType: 'Single-V',
+			rootOpeningMin: '2',
+			rootOpeningMax: '4',
+			rootFaceMin: '1',
+			rootFaceMax: '2',
+			bevelAngleMin: '30',
+			bevelAngleMax: '35',
+			preheatMin: '10',
+			interpassMax: '250',
+			fillerClasses: 'W 42 5 W3Si1; E 42 4 B 32 H5',
+			pqrs: 'PQR-N-0412'
+		},
+		{
+			number: 'WPS-VFT-07',
+			revision: '1',
+			status: 'approved',
+			title: 'Structural steel S355, flux-cored',
+			processes: '136',
+			materialGroups: '1.2',
+			thicknessMin: '6 mm',
+			thicknessMax: '40 mm',
+			grooveType: 'Fillet; single-bevel',
+			preheatMin: '20',
+			interpassMax: '250',
+			fillerClasses: 'T 46 4 P M 1 H5',
+			pqrs: 'PQR-N-0520'
+		}
+	],
 	welders: [
 		{
 			stamp: 'N03',

@@ -13,6 +13,8 @@ import * as storage from '../storage';
 import * as audit from '../audit';
 import * as users from '../users';
 import { refreshState } from '../joints';
+import * as wpsRegister from '../wps';
+import { emptyWps } from '$lib/wps-register';
 import { renderDemoSheet, type DemoWeld } from './sheets';
 import {
 	DEMO_PASSWORD,
@@ -145,6 +147,10 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 					}
 				});
 				const welderIds = seedWelders(tx, projectId, project);
+				for (const typed of project.wpsRegister) {
+					const record = wpsRegister.readOrThrow({ ...emptyWps(), ...typed }, projectId, tx);
+					wpsRegister.insertInTransaction(tx, projectId, record, people.admin);
+				}
 				for (const drawing of project.drawings) {
 					const revisionSheets = sheets.get(drawing.number)!;
 					const keys = revisionSheets.map(() => files[fileIndex++].key);
@@ -161,6 +167,8 @@ async function seedDemo(db: Db): Promise<SeedResult> {
 					drawingCount++;
 				}
 				recordLastUse(tx, projectId);
+				// Joints typed with a WPS number name that WPS of the register.
+				wpsRegister.linkTypedJoints(tx, projectId);
 			});
 			// NDE lots in every stage, from the welds above.
 			seedDemoLots(tx);

@@ -10,6 +10,8 @@ import { isMember } from '$lib/permissions';
 import { apiError, invalid } from '$lib/server/api';
 import { readJson } from '$lib/server/api-body';
 import * as criteriaSets from '$lib/server/criteria-sets';
+import * as wpsRegister from '$lib/server/wps';
+import { jointDesign } from '$lib/wps-register';
 import { evaluateIndicationsSchema, evaluateRequestSchema } from '$lib/schemas/acceptance';
 import type { RequestHandler } from './$types';
 
@@ -20,7 +22,9 @@ const EXAMPLE =
  * The verdict for one set of readings, from the same engine the joint card runs in the browser.
  * Nothing is stored: recording an inspection belongs to the inspection routes. With `projectId`
  * the criteria may also be one of that project's own sets (latest version). With stage `nde`,
- * the indications of an RT or UT report are judged by the set's criteria for them.
+ * the indications of an RT or UT report are judged by the set's criteria for them. With
+ * `projectId` and `wps` (a WPS number of that project's register, `wpsRevision` optional), a
+ * fit-up is also judged against that WPS's joint design (clause "WPS {number} rev {rev}").
  */
 export const POST: RequestHandler = async ({ request, locals }) => {
 	const read = await readJson(request);
@@ -74,8 +78,25 @@ export const POST: RequestHandler = async ({ request, locals }) => {
 			notice: acceptanceNotice
 		});
 	}
-	const { stage, readings } = parsed.data;
-	const result = evaluate(set, joint, stage, readings, { units });
+	const { stage, readings, wps: wpsNumber, wpsRevision } = parsed.data;
+	let wps;
+	if (wpsNumber !== undefined) {
+		if (projectId === undefined) {
+			return apiError(400, 'Give the projectId whose WPS register names the WPS.', 'projectId');
+		}
+		const found = wpsRegister.byNumber(projectId, wpsNumber, wpsRevision);
+		if (!found) {
+			return apiError(
+				400,
+				wpsRevision === undefined
+					? `The project's register has no approved WPS "${wpsNumber}".`
+					: `The project's register has no WPS "${wpsNumber}" rev ${wpsRevision}.`,
+				'wps'
+			);
+		}
+		wps = jointDesign(found);
+	}
+	const result = evaluate(set, joint, stage, readings, { units, wps });
 	if (!result.ok) {
 		const [first] = result.errors;
 		return apiError(400, first.message, first.field);
