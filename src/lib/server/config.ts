@@ -46,5 +46,7 @@ export const config = {
 	/** Longest time the check of one uploaded PDF may take before it is refused. */
 	uploadCheckSeconds: count(process.env.UPLOAD_CHECK_SECONDS, 120),
 	/** Days a finished turnover zip is kept; 0 keeps every zip until a person removes it. */
-	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30)
+	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30),
+	/** Minutes a freshly placed joint with no record can be taken back (Undo); 0 never. */
+	undoPlaceMinutes: days(process.env.UNDO_PLACE_MINUTES, 10)
 };

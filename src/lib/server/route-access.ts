@@ -102,7 +102,12 @@ export const ROUTES: Record<string, RouteRules> = {
 	},
 	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
-	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
+	'/api/joints/[jointId=id]': {
+		GET: project('project.read'),
+		PATCH: project('joint.edit'),
+		// Undo of a pin placed by mistake: whoever may place pins.
+		DELETE: project('pin.place')
+	},
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/joints/[jointId=id]/cut-out': { POST: project('joint.cutout') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },

@@ -8,6 +8,8 @@ export interface JointDetail {
 	drawingId: number;
 	number: string;
 	label: string;
+	/** Until when the joint can be taken back (placed by mistake, no record yet), or null. */
+	undoUntil: number | null;
 	kind: 'butt' | 'fillet' | 'socket' | 'branch';
 	location: 'shop' | 'field';
 	line: string;

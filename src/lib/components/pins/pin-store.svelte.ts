@@ -72,6 +72,7 @@ export class PinStore {
 		pageIndex: number;
 		x: number;
 		y: number;
+		number?: string;
 		insertAfter?: string;
 		joint: Record<string, string>;
 	}) {
@@ -84,6 +85,15 @@ export class PinStore {
 		);
 		await this.refresh();
 		return created;
+	}
+
+	/** Take back a joint placed by mistake (its pin goes with it). */
+	async takeBack(jointId: number) {
+		try {
+			await callApi<null>(`/api/joints/${jointId}`, { method: 'DELETE' });
+		} finally {
+			await this.refresh();
+		}
 	}
 
 	/** Move a pin; on a stale version the pins are reloaded and the failure rethrown. */
