@@ -50,6 +50,10 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
 		GET: project('project.read')
 	},
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/details': {
+		GET: project('drawing.edit'),
+		actions: { default: project('drawing.edit') }
+	},
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/compare': {
 		GET: project('project.read')
 	},
@@ -90,6 +94,7 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('drawing.upload')
 	},
 	'/api/projects/[projectId=id]/upload-permit': { GET: project('drawing.upload') },
+	'/api/drawings/[drawingId=id]': { GET: project('project.read'), PATCH: project('drawing.edit') },
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
 	// Tiles of a sheet: the same rule as the PDF they are drawn from.

@@ -25,6 +25,9 @@ export class UploadItem {
 	number = $state('');
 	title = $state('');
 	kind = $state<'isometric' | 'shop' | 'structural'>('isometric');
+	line = $state('');
+	area = $state('');
+	system = $state('');
 	label = $state('0');
 	note = $state('');
 	status = $state<UploadStatus>('ready');
@@ -73,6 +76,9 @@ export class UploadItem {
 			form.set('number', this.number.trim());
 			form.set('title', this.title);
 			form.set('kind', this.kind);
+			form.set('line', this.line);
+			form.set('area', this.area);
+			form.set('system', this.system);
 			form.set('revision', this.label.trim());
 			form.set('note', this.note);
 		}
