@@ -34,6 +34,8 @@ CREATE TABLE `sheet_suggestions` (
 	`number` text NOT NULL,
 	`x` real NOT NULL,
 	`y` real NOT NULL,
+	`target_x` real,
+	`target_y` real,
 	`status` text DEFAULT 'open' NOT NULL,
 	`joint_id` integer,
 	`decided_by` text,

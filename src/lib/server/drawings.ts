@@ -7,6 +7,7 @@ import * as audit from './audit';
 import { inspectPdf } from './pdf-inspect';
 import * as events from './events';
 import * as tiles from './tiles';
+import * as sheetReadings from './sheet-readings';
 import type { StagedUpload } from './staged-uploads';
 import { emptyCounts, type StateCounts } from '$lib/state-counts';
 import type { z } from 'zod';
@@ -497,6 +498,7 @@ export async function create(
 			return { drawing, revisionId: created.id };
 		}, IMMEDIATE);
 		tiles.queue(stored.revisionId);
+		void sheetReadings.queue(stored.revisionId);
 		return stored;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
@@ -616,6 +618,7 @@ export async function addRevision(
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
 		}, IMMEDIATE);
 		tiles.queue(result.revisionId);
+		void sheetReadings.queue(result.revisionId);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',

@@ -106,6 +106,13 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('pin.place')
 	},
 	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
+	// Weld numbers read from the sheets: seen by all, read again, accepted or dismissed by placers.
+	'/api/revisions/[revisionId=id]/suggestions': {
+		GET: project('project.read'),
+		POST: project('pin.place')
+	},
+	'/api/revisions/[revisionId=id]/suggestions/accept': { POST: project('pin.place') },
+	'/api/revisions/[revisionId=id]/suggestions/dismiss': { POST: project('pin.place') },
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
 	'/api/joints/[jointId=id]': {
 		GET: project('project.read'),

@@ -361,7 +361,11 @@ export const sheetReadings = sqliteTable('sheet_readings', {
 	finishedAt: integer('finished_at')
 });
 
-/** A weld number found on a sheet and not yet on the drawing: a pin the user may accept. */
+/**
+ * A weld number found on a sheet. `open`: not on the drawing yet, offered as a pin to accept;
+ * `accepted`: on the drawing (`jointId`), whether accepted here or already there when read;
+ * `dismissed`: turned down. Every label found is kept, so the next revision can be matched.
+ */
 export const sheetSuggestions = sqliteTable(
 	'sheet_suggestions',
 	{
@@ -371,9 +375,12 @@ export const sheetSuggestions = sqliteTable(
 			.references(() => revisions.id, { onDelete: 'cascade' }),
 		pageIndex: integer('page_index').notNull(),
 		number: text('number').notNull(),
-		/** PDF points: where the weld is (the label's target when one was seen, else the label). */
+		/** PDF points: the centre of the printed number. */
 		x: real('x').notNull(),
 		y: real('y').notNull(),
+		/** The weld the label points at (leader, dot or tick), where a pin is best placed. */
+		targetX: real('target_x'),
+		targetY: real('target_y'),
 		status: text('status').$type<SuggestionStatus>().notNull().default('open'),
 		jointId: integer('joint_id').references((): AnySQLiteColumn => joints.id, {
 			onDelete: 'set null'
