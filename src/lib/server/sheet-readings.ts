@@ -400,7 +400,12 @@ export function accept(
 		throw new DomainError('Suggestions are accepted on the current revision only.', 409);
 	const made = db.transaction(() => {
 		const rows = openOnes(revisionId, numbers);
+		const field = revision.rule.fieldPrefix.toUpperCase();
 		return rows.map((row) => {
+			// A number with the field prefix is a field weld unless the defaults say otherwise.
+			const location =
+				defaults.location ??
+				(field && row.number.toUpperCase().startsWith(field) ? 'field' : 'shop');
 			const { joint, pin } = joints.place(
 				{
 					revisionId,
@@ -408,7 +413,7 @@ export function accept(
 					x: row.targetX ?? row.x,
 					y: row.targetY ?? row.y,
 					number: row.number,
-					joint: defaults
+					joint: { ...defaults, location }
 				},
 				userId
 			);

@@ -20,6 +20,19 @@ export function nextLabel(current: string | null): string {
 	return '';
 }
 
+/** What a new revision did with the pins of the one before, as the upload answer says. */
+export function carriedText(body: {
+	pinsCarried?: number;
+	pinsInPlace?: number | null;
+	pinsMoved?: number | null;
+	pinsFlagged?: number | null;
+}): string {
+	if (!body.pinsCarried) return '';
+	if (body.pinsInPlace == null)
+		return ` ${body.pinsCarried} pins carried over, flagged for review while its sheets are read.`;
+	return ` ${body.pinsCarried} pins carried over: ${body.pinsInPlace} in place, ${body.pinsMoved ?? 0} moved with their number and ${body.pinsFlagged ?? 0} not found; the moved and not found wait for review.`;
+}
+
 export class UploadItem {
 	readonly file: File;
 	number = $state('');
@@ -105,6 +118,10 @@ export class UploadItem {
 					error?: string;
 					drawing?: { id: number };
 					revision?: { id: number; label: string };
+					pinsCarried?: number;
+					pinsInPlace?: number | null;
+					pinsMoved?: number | null;
+					pinsFlagged?: number | null;
 				} | null;
 				if (xhr.status === 201 && body?.revision) {
 					this.status = 'done';
@@ -112,7 +129,7 @@ export class UploadItem {
 					const drawingId = body.drawing?.id ?? match!.id;
 					this.resultHref = `/projects/${projectId}/drawings/${drawingId}`;
 					this.message = match
-						? `Revision ${body.revision.label} is now current; the previous one is superseded.`
+						? `Revision ${body.revision.label} is now current; the previous one is superseded.${carriedText(body)}`
 						: `Registered with revision ${body.revision.label}.`;
 				} else {
 					this.status = 'failed';
