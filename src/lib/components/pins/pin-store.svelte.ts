@@ -20,6 +20,8 @@ export interface PinItem {
 	y: number;
 	state: JointState;
 	needsReview: boolean;
+	/** Why it waits for review: moved with its number on the new revision, or not found there. */
+	reviewReason?: 'moved' | 'missing' | null;
 	version: number;
 }
 
