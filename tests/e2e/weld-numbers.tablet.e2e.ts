@@ -53,8 +53,8 @@ test('lasso suggestions, type a number while placing, undo, renumber', async ({ 
 	await signInInBrowser(page, 'inspector@tacksheet.test');
 	await expect(page).toHaveURL(/\/projects$/);
 	await page.goto(`/projects/1/drawings/${drawingId}`);
-	// A fresh upload: its sheet may still be drawing (tiles being made) while the rings show.
-	await expect(page.getByTestId('sheet')).toBeVisible();
+	// A fresh upload: its tiles are still being made, so the first draw can take a while.
+	await expect(page.locator('[data-rendered-page="1"]')).toBeVisible({ timeout: 60_000 });
 	const rings = page.getByTestId('suggestion');
 	await expect(rings.first()).toBeAttached();
 	const before = await rings.count();
