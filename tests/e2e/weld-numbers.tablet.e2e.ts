@@ -111,7 +111,6 @@ test('lasso suggestions, type a number while placing, undo, renumber', async ({ 
 	// Place it again and renumber it from its card; the history keeps the old number.
 	await page.touchscreen.tap(sheet.x + sheet.width * 0.9, sheet.y + sheet.height * 0.12);
 	await expect(card.getByRole('heading', { level: 2 })).toContainText('Weld FW-900');
-	await page.getByTestId('place-toggle').click();
 	await card.getByTestId('renumber').click();
 	await card.getByTestId('renumber-input').fill('FW-950');
 	await card.getByRole('button', { name: 'Renumber' }).click();
