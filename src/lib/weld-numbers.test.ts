@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
+	followingWeldNumber,
 	cutOutWeldNumber,
 	insertedWeldNumber,
 	nextWeldNumber,
@@ -57,5 +58,18 @@ describe('cut-out numbers', () => {
 			weldNumberSortKey(a) < weldNumberSortKey(b) ? -1 : 1
 		);
 		expect(sorted).toEqual(['12', '12A', '12N', '12N2', '12N10', '13']);
+	});
+});
+
+describe('the number offered after a typed one', () => {
+	// Common practice: a prefix names shop or field welds, numbers run on within it.
+	it('keeps the prefix and counts on past the highest used with it', () => {
+		expect(followingWeldNumber('FW-12', ['FW-3', '14'])).toBe('FW-13');
+		expect(followingWeldNumber('FW-12', ['FW-20'])).toBe('FW-21');
+		expect(followingWeldNumber('101', ['5', 'FW-300'])).toBe('102');
+		expect(followingWeldNumber('SW2-7A', [])).toBe('SW2-8');
+	});
+	it('offers nothing after a number without digits', () => {
+		expect(followingWeldNumber('TIE-IN', [])).toBeNull();
 	});
 });

@@ -68,3 +68,13 @@ export function cutOutWeldNumber(number: string, used: readonly string[]): strin
 	while (taken.has(candidate().toUpperCase())) count++;
 	return candidate();
 }
+
+/**
+ * The number to offer after one typed while placing: the same prefix, the next free number
+ * (`FW-12` → `FW-13`; `101` → `102`). Null when the typed one has no digits to count on.
+ */
+export function followingWeldNumber(typed: string, used: readonly string[]): string | null {
+	const match = PARTS.exec(typed.trim());
+	if (!match) return null;
+	return nextWeldNumber([...used, typed.trim()], match[1]);
+}

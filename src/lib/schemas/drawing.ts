@@ -27,6 +27,28 @@ export const newDrawingSchema = z.object({
 	system: field('The system', 80)
 });
 
+/** The register data of a drawing, as the document controller edits it afterwards. */
+export const registerFields = z.object({
+	number: text('A drawing number', 80, { min: 1, minError: 'Enter the drawing number.' }),
+	title: text('The title', 200),
+	kind: z.enum(DRAWING_KINDS, { error: 'Choose isometric, shop or structural.' }),
+	line: text('The line', 120),
+	area: text('The area', 80),
+	system: text('The system', 80)
+});
+
+const drawingVersion = z
+	.number({ error: 'Send the drawing version you last saw.' })
+	.int({ error: 'The drawing version is a whole number.' })
+	.min(1, { error: 'The drawing version is a whole number from 1.' });
+
+/** An edit of the register data: the fields to change and the version the editor last saw. */
+export const updateDrawingSchema = registerFields.partial().extend({ version: drawingVersion });
+
+/** The page form of the register data: every field, and the version it was loaded at. */
+export const drawingDetailsForm = registerFields.extend({ version: drawingVersion });
+export type UpdateDrawing = z.infer<typeof updateDrawingSchema>;
+
 export const newRevisionSchema = z.object({
 	label: revisionLabel,
 	note: note('The note', 500).default('')

@@ -160,3 +160,23 @@ export function jointLengths(
 	}
 	return { ok: true, values };
 }
+
+/** Which suggestions of a revision: some numbers, or all of them. */
+const suggestionChoice = {
+	numbers: z
+		.array(weldNumber)
+		.min(1, { error: 'Name at least one suggested number, or send "all": true.' })
+		.max(5000)
+		.optional(),
+	all: z.literal(true, { error: '"all" is true when sent.' }).optional()
+};
+const oneChoice = (value: { numbers?: string[]; all?: true }) =>
+	(value.numbers !== undefined) !== (value.all === true);
+const choiceError = { error: 'Send either "numbers": [...] or "all": true.', path: ['numbers'] };
+
+/** Accept suggestions: joints made with these defaults (kind, shop or field, criteria set …). */
+export const acceptSuggestionsSchema = z
+	.object({ ...suggestionChoice, joint: jointFields.partial().default({}) })
+	.refine(oneChoice, choiceError);
+
+export const dismissSuggestionsSchema = z.object(suggestionChoice).refine(oneChoice, choiceError);

@@ -6,6 +6,8 @@ export const AUDIT_ACTIONS = [
 	// records on a joint
 	'create',
 	'update',
+	'renumber',
+	'take_back',
 	'void',
 	'cut_out',
 	'pin_move',

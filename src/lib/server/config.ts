@@ -48,5 +48,7 @@ export const config = {
 	/** Days a finished turnover zip is kept; 0 keeps every zip until a person removes it. */
 	exportKeepDays: days(process.env.EXPORT_KEEP_DAYS, 30),
 	/** Hours an invitation's link works (a sign-in link asked for on the sign-in page: 30 minutes). */
-	inviteHours: count(process.env.INVITE_HOURS, 72)
+	inviteHours: count(process.env.INVITE_HOURS, 72),
+	/** Minutes a freshly placed joint with no record can be taken back (Undo); 0 never. */
+	undoPlaceMinutes: days(process.env.UNDO_PLACE_MINUTES, 10)
 };

@@ -21,11 +21,17 @@ import * as audit from './audit';
 import { inspectPdf } from './pdf-inspect';
 import * as events from './events';
 import * as tiles from './tiles';
+import * as sheetReadings from './sheet-readings';
 import type { StagedUpload } from './staged-uploads';
 import { emptyCounts } from '$lib/state-counts';
 import * as counting from './state-counts';
 import type { z } from 'zod';
-import type { DrawingListQuery, newDrawingSchema, newRevisionSchema } from '$lib/schemas/drawing';
+import type {
+	DrawingListQuery,
+	newDrawingSchema,
+	newRevisionSchema,
+	UpdateDrawing
+} from '$lib/schemas/drawing';
 
 const d = schema.drawings;
 const r = schema.revisions;
@@ -159,6 +165,77 @@ export function get(projectId: number, drawingId: number) {
 		.from(d)
 		.where(and(eq(d.id, drawingId), eq(d.projectId, projectId)))
 		.get();
+}
+
+/** What an edit of the register data may change, in the order the audit lists it. */
+const REGISTER_FIELDS = ['number', 'title', 'kind', 'line', 'area', 'system'] as const;
+
+/**
+ * Change a drawing's register data (number, title, type, line, area, system), named by the
+ * version the editor last saw: a stale one, or a number another drawing of the project has,
+ * is refused with 409. Audited with the values before and after.
+ */
+export function update(projectId: number, drawingId: number, input: UpdateDrawing, userId: string) {
+	const result = db.transaction((tx) => {
+		const drawing = tx
+			.select()
+			.from(d)
+			.where(and(eq(d.id, drawingId), eq(d.projectId, projectId)))
+			.get();
+		if (!drawing) throw new DomainError('There is no such drawing in this project.', 404);
+		if (drawing.version !== input.version)
+			throw new DomainError(
+				`Someone else changed drawing ${drawing.number} since you opened it. Reload it and check before you save again.`,
+				409,
+				'version'
+			);
+		const changed = REGISTER_FIELDS.filter(
+			(key) => input[key] !== undefined && input[key] !== drawing[key]
+		);
+		if (changed.length === 0) return { drawing, changed };
+		if (input.number !== undefined && changed.includes('number')) {
+			const clash = tx
+				.select({ id: d.id, number: d.number })
+				.from(d)
+				.where(
+					and(
+						eq(d.projectId, projectId),
+						sql`upper(${d.number}) = ${input.number.toUpperCase()}`,
+						ne(d.id, drawingId)
+					)
+				)
+				.get();
+			if (clash)
+				throw new DomainError(
+					`Drawing number ${clash.number} is already registered in this project.`,
+					409,
+					'number'
+				);
+		}
+		const values = Object.fromEntries(changed.map((key) => [key, input[key]]));
+		const updated = tx
+			.update(d)
+			.set({ ...values, version: drawing.version + 1 })
+			.where(eq(d.id, drawingId))
+			.returning()
+			.get();
+		audit.record(
+			{
+				action: 'update',
+				entity: 'drawing',
+				entityId: drawingId,
+				projectId,
+				userId,
+				before: Object.fromEntries(changed.map((key) => [key, drawing[key]])),
+				after: values
+			},
+			tx
+		);
+		return { drawing: updated, changed };
+	}, IMMEDIATE);
+	if (result.changed.length > 0)
+		events.publish(projectId, { type: 'drawing', action: 'updated', drawingId, by: userId });
+	return result.drawing;
 }
 
 /** Every revision of a drawing, newest first, with who uploaded it. */
@@ -419,6 +496,7 @@ export async function create(
 			return { drawing, revisionId: created.id };
 		}, IMMEDIATE);
 		tiles.queue(stored.revisionId);
+		void sheetReadings.queue(stored.revisionId);
 		return stored;
 	} catch (error) {
 		await storage.remove(key).catch(() => {});
@@ -538,6 +616,7 @@ export async function addRevision(
 			return { revisionId: created.id, superseded: previous?.label ?? null, pinsCarried: carried };
 		}, IMMEDIATE);
 		tiles.queue(result.revisionId);
+		void sheetReadings.queue(result.revisionId);
 		events.publish(projectId, {
 			type: 'revision',
 			action: 'added',

@@ -8,13 +8,17 @@ import { db } from './db';
 export type ProjectEvent =
 	| {
 			type: 'pin';
-			action: 'created' | 'moved' | 'reviewed';
+			action: 'created' | 'moved' | 'reviewed' | 'removed';
 			revisionId: number;
 			jointId: number;
 			pinId: number;
 	  }
 	| { type: 'joint'; action: 'updated' | 'voided' | 'recorded'; jointId: number; drawingId: number }
 	| { type: 'revision'; action: 'added'; drawingId: number; revisionId: number }
+	/** A drawing's register data changed (number, title, type, line, area, system). */
+	| { type: 'drawing'; action: 'updated'; drawingId: number }
+	/** Weld numbers read from a revision's sheets, or suggestions accepted or dismissed. */
+	| { type: 'suggestions'; action: 'read' | 'changed'; drawingId: number; revisionId: number }
 	/** How far the sheets of a revision are prepared as image tiles (src/lib/server/tiles.ts). */
 	| {
 			type: 'tiles';

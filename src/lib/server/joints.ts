@@ -5,7 +5,7 @@
  */
 import { CAUTION } from '$lib/caution';
 import { DomainError, refuse } from './errors';
-import { and, asc, desc, eq, inArray, isNull, or } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm';
 import { db, schema, type Db } from './db';
 import * as audit from './audit';
 import * as projects from './projects';
@@ -15,6 +15,7 @@ import { lotSample } from './nde/standing';
 import * as nde from './nde';
 import * as wpsRegister from './wps';
 import { jointDesign, rangeFlags, wpsLabel } from '$lib/wps-register';
+import { config } from './config';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -38,6 +39,7 @@ type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
 const j = schema.joints;
 const p = schema.pins;
+const rw = schema.retiredWeldNumbers;
 
 /** Everything deriveJointState needs about one joint, read in one go. */
 export function stateInput(jointId: number, tx: Reader = db) {
@@ -276,6 +278,8 @@ export function detail(jointId: number) {
 			? null
 			: (criteriaSets.get(joint.projectId, joint.criteriaSetId) ?? null),
 		label: displayWeldNumber(joint.number, joint.repairCycle),
+		/** Until when the joint can be taken back (Undo), or null. */
+		undoUntil: takeBackUntil(joint),
 		stateLabel: look.label,
 		replaces,
 		replacedBy,
@@ -348,6 +352,48 @@ function numbersOf(drawingId: number, tx: Reader): string[] {
 		.map((r) => r.number);
 }
 
+/** The numbers a drawing gave up when its joints were renumbered: never used again. */
+function retiredOf(drawingId: number, tx: Reader) {
+	return tx
+		.select({ number: rw.number, key: rw.key, jointId: rw.jointId })
+		.from(rw)
+		.where(eq(rw.drawingId, drawingId))
+		.all();
+}
+
+/**
+ * Every number the drawing has used: its joints' (void ones too) and the retired ones. A
+ * number is compared in capitals, so `fw-3` and `FW-3` are the same weld.
+ */
+export function usedNumbers(drawingId: number, tx: Reader = db): string[] {
+	return numbersOf(drawingId, tx).concat(retiredOf(drawingId, tx).map((r) => r.number));
+}
+
+/** Refuse a number the drawing already uses or used before, naming which. */
+function checkNumberFree(drawingId: number, number: string, tx: Reader, jointId?: number) {
+	const key = number.toUpperCase();
+	const holder = tx
+		.select({ id: j.id, number: j.number, voidedAt: j.voidedAt })
+		.from(j)
+		.where(and(eq(j.drawingId, drawingId), sql`upper(${j.number}) = ${key}`))
+		.get();
+	if (holder && holder.id !== jointId)
+		throw new DomainError(
+			holder.voidedAt
+				? `Weld number ${holder.number} belongs to a void joint on this drawing; numbers are never reused.`
+				: `Weld number ${holder.number} is already used on this drawing.`,
+			409,
+			'number'
+		);
+	const retired = retiredOf(drawingId, tx).find((r) => r.key === key);
+	if (retired && retired.jointId !== jointId)
+		throw new DomainError(
+			`Weld number ${retired.number} was used on this drawing before (its joint was renumbered); numbers are never reused.`,
+			409,
+			'number'
+		);
+}
+
 export interface PlacePin {
 	revisionId: number;
 	pageIndex: number;
@@ -389,7 +435,7 @@ export function place(input: PlacePin, userId: string) {
 		checkCriteriaSet(revision.projectId, input.joint.criteriaSetId, 'joint.criteriaSetId', db);
 	}
 	return events.afterCommit((tx, tell) => {
-		const used = numbersOf(revision.drawingId, tx);
+		const used = usedNumbers(revision.drawingId, tx);
 		const line = input.joint.line ?? revision.line;
 		// Numbers run per drawing, or on along the whole line across its drawings.
 		const sequence =
@@ -417,13 +463,7 @@ export function place(input: PlacePin, userId: string) {
 			sequence,
 			location === 'field' ? revision.rule.fieldPrefix : revision.rule.shopPrefix
 		);
-		if (used.some((n) => n.toUpperCase() === number!.toUpperCase())) {
-			throw new DomainError(
-				`Weld number ${number} is already used on this drawing (numbers are never reused, also after a joint is voided).`,
-				409,
-				'number'
-			);
-		}
+		checkNumberFree(revision.drawingId, number, tx);
 		const wpsChosen =
 			input.joint.wpsId != null
 				? wpsChoiceOrThrow(revision.projectId, input.joint.wpsId, null, tx)
@@ -539,20 +579,9 @@ export function update(
 			const current = wpsRegister.row(joint.wpsId, tx);
 			if (current && plain.wps.trim() !== current.number) plain.wpsId = null;
 		}
-		if (number && number !== joint.number) {
-			if (numbersOf(joint.drawingId, tx).some((n) => n.toUpperCase() === number.toUpperCase())) {
-				throw new DomainError(
-					`Weld number ${number} is already used on this drawing.`,
-					409,
-					'number'
-				);
-			}
-		}
-		const values = {
-			...plain,
-			...lengths,
-			...(number ? { number, sortKey: weldNumberSortKey(number) } : {})
-		};
+		const renumbered = number !== undefined && number !== joint.number ? number : undefined;
+		if (renumbered !== undefined) renumber(tx, joint, renumbered, userId);
+		const values = { ...plain, ...lengths };
 		const before = Object.fromEntries(
 			Object.keys(values).map((k) => [k, joint[k as keyof typeof joint]])
 		);
@@ -563,18 +592,19 @@ export function update(
 			.returning()
 			.get();
 		refreshState(jointId, tx);
-		audit.record(
-			{
-				action: 'update',
-				entity: 'joint',
-				entityId: jointId,
-				projectId: joint.projectId,
-				userId,
-				before,
-				after: values
-			},
-			tx
-		);
+		if (Object.keys(values).length > 0)
+			audit.record(
+				{
+					action: 'update',
+					entity: 'joint',
+					entityId: jointId,
+					projectId: joint.projectId,
+					userId,
+					before,
+					after: values
+				},
+				tx
+			);
 		tell(joint.projectId, {
 			type: 'joint',
 			action: 'updated',
@@ -583,6 +613,141 @@ export function update(
 			by: userId
 		});
 		return updated;
+	});
+}
+
+/**
+ * Give a joint another weld number inside the caller's transaction: the new one must be free
+ * on the drawing, and the old one is retired so it is never handed out again. A joint may take
+ * back a number it gave up itself (a slip of the keyboard undone); nobody else may.
+ */
+function renumber(
+	tx: Tx,
+	joint: { id: number; number: string; drawingId: number; projectId: number },
+	number: string,
+	userId: string
+) {
+	const changesCase = number.toUpperCase() === joint.number.toUpperCase();
+	if (!changesCase) checkNumberFree(joint.drawingId, number, tx, joint.id);
+	tx.delete(rw)
+		.where(and(eq(rw.drawingId, joint.drawingId), eq(rw.key, number.toUpperCase())))
+		.run();
+	if (!changesCase)
+		tx.insert(rw)
+			.values({
+				drawingId: joint.drawingId,
+				number: joint.number,
+				key: joint.number.toUpperCase(),
+				jointId: joint.id,
+				retiredBy: userId
+			})
+			.onConflictDoNothing()
+			.run();
+	tx.update(j)
+		.set({ number, sortKey: weldNumberSortKey(number) })
+		.where(eq(j.id, joint.id))
+		.run();
+	audit.record(
+		{
+			action: 'renumber',
+			entity: 'joint',
+			entityId: joint.id,
+			projectId: joint.projectId,
+			userId,
+			before: { number: joint.number },
+			after: { number }
+		},
+		tx
+	);
+}
+
+/**
+ * Why a joint can no longer be taken back, or null while it can: placed in the last minutes
+ * (`UNDO_PLACE_MINUTES`), not a cut-out's replacement, and with no weld, inspection, request
+ * or NDE selection on it. Such a joint was a slip; its number was never used on a record.
+ */
+export function takeBackRefusal(
+	joint: {
+		id: number;
+		number: string;
+		createdAt: number;
+		voidedAt: number | null;
+		replacesJointId: number | null;
+	},
+	tx: Reader = db,
+	at = Date.now()
+): string | null {
+	const minutes = config.undoPlaceMinutes;
+	if (joint.voidedAt) return `Joint ${joint.number} is void; a void joint stays in the log.`;
+	if (joint.replacesJointId)
+		return `Joint ${joint.number} replaces a cut-out joint; void it instead if it was a mistake.`;
+	if (at - joint.createdAt > minutes * 60_000)
+		return `Joint ${joint.number} was placed more than ${minutes} minutes ago; void it instead, with the reason.`;
+	const has = (
+		table:
+			| typeof schema.welds
+			| typeof schema.inspections
+			| typeof schema.inspectionRequests
+			| typeof schema.ndeSelections
+	) =>
+		tx.select({ id: table.id }).from(table).where(eq(table.jointId, joint.id)).get() !== undefined;
+	if (
+		has(schema.welds) ||
+		has(schema.inspections) ||
+		has(schema.inspectionRequests) ||
+		has(schema.ndeSelections)
+	)
+		return `Joint ${joint.number} already has records; void it instead, with the reason.`;
+	return null;
+}
+
+/** Until when a joint can be taken back (UTC ms), or null when it cannot. */
+export function takeBackUntil(joint: Parameters<typeof takeBackRefusal>[0], tx: Reader = db) {
+	return takeBackRefusal(joint, tx) ? null : joint.createdAt + config.undoPlaceMinutes * 60_000;
+}
+
+/**
+ * Take back a joint placed by mistake: the joint and its pins are deleted, so its number is
+ * free again (the one exception to "never reused": it was never used on a record). A
+ * suggestion it was accepted from is offered again. Audited.
+ */
+export function takeBack(jointId: number, version: number | undefined, userId: string) {
+	return events.afterCommit((tx, tell) => {
+		const joint = version === undefined ? row(jointId, tx) : lockedJoint(tx, jointId, version);
+		if (!joint) throw new DomainError('There is no such joint.', 404);
+		const refusal = takeBackRefusal(joint, tx);
+		if (refusal) throw new DomainError(refusal, 409);
+		const pins = tx
+			.select({ id: p.id, revisionId: p.revisionId, pageIndex: p.pageIndex, x: p.x, y: p.y })
+			.from(p)
+			.where(eq(p.jointId, jointId))
+			.all();
+		tx.update(schema.sheetSuggestions)
+			.set({ status: 'open', jointId: null, decidedBy: null, decidedAt: null })
+			.where(eq(schema.sheetSuggestions.jointId, jointId))
+			.run();
+		tx.delete(j).where(eq(j.id, jointId)).run();
+		audit.record(
+			{
+				action: 'take_back',
+				entity: 'joint',
+				entityId: jointId,
+				projectId: joint.projectId,
+				userId,
+				before: { number: joint.number, drawingId: joint.drawingId, pins }
+			},
+			tx
+		);
+		for (const pin of pins)
+			tell(joint.projectId, {
+				type: 'pin',
+				action: 'removed',
+				revisionId: pin.revisionId,
+				jointId,
+				pinId: pin.id,
+				by: userId
+			});
+		return { number: joint.number };
 	});
 }
 
@@ -704,7 +869,7 @@ export function cutOut(jointId: number, reason: string, version: number, userId:
 				409
 			);
 
-		const number = cutOutWeldNumber(joint.number, numbersOf(joint.drawingId, tx));
+		const number = cutOutWeldNumber(joint.number, usedNumbers(joint.drawingId, tx));
 		const now = Date.now();
 		const voidReason = `Cut out: ${reason}; replaced by ${number}`;
 		markVoid(tx, joint, voidReason, userId, now);

@@ -32,6 +32,7 @@ function pinsQuery() {
 			y: p.y,
 			state: j.state,
 			needsReview: p.needsReview,
+			reviewReason: p.reviewReason,
 			version: j.version
 		})
 		.from(p)

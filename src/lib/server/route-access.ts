@@ -50,6 +50,10 @@ export const ROUTES: Record<string, RouteRules> = {
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/revisions/[revisionId=id]': {
 		GET: project('project.read')
 	},
+	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/details': {
+		GET: project('drawing.edit'),
+		actions: { default: project('drawing.edit') }
+	},
 	'/(app)/projects/[projectId=id]/drawings/[drawingId=id]/compare': {
 		GET: project('project.read')
 	},
@@ -90,6 +94,7 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('drawing.upload')
 	},
 	'/api/projects/[projectId=id]/upload-permit': { GET: project('drawing.upload') },
+	'/api/drawings/[drawingId=id]': { GET: project('project.read'), PATCH: project('drawing.edit') },
 	'/api/revisions/[revisionId=id]': { GET: project('project.read') },
 	'/api/revisions/[revisionId=id]/file': { GET: project('project.read') },
 	// Tiles of a sheet: the same rule as the PDF they are drawn from.
@@ -101,8 +106,20 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('pin.place')
 	},
 	'/api/pins/[pinId=id]': { PATCH: project('pin.move') },
+	// Weld numbers read from the sheets: seen by all, read again, accepted or dismissed by placers.
+	'/api/revisions/[revisionId=id]/suggestions': {
+		GET: project('project.read'),
+		POST: project('pin.place')
+	},
+	'/api/revisions/[revisionId=id]/suggestions/accept': { POST: project('pin.place') },
+	'/api/revisions/[revisionId=id]/suggestions/dismiss': { POST: project('pin.place') },
 	'/api/pins/[pinId=id]/confirm': { POST: project('pin.review') },
-	'/api/joints/[jointId=id]': { GET: project('project.read'), PATCH: project('joint.edit') },
+	'/api/joints/[jointId=id]': {
+		GET: project('project.read'),
+		PATCH: project('joint.edit'),
+		// Undo of a pin placed by mistake: whoever may place pins.
+		DELETE: project('pin.place')
+	},
 	'/api/joints/[jointId=id]/void': { POST: project('joint.void') },
 	'/api/joints/[jointId=id]/cut-out': { POST: project('joint.cutout') },
 	'/api/projects/[projectId=id]/events': { GET: project('project.read') },

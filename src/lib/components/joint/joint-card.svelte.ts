@@ -92,6 +92,17 @@ export class JointCardState {
 			(joint) => this.showing(joint, 'Saved.')
 		);
 
+	/** Give the joint another weld number; the old one is retired on the drawing. */
+	renumber = (number: string) =>
+		this.run(
+			() =>
+				callApi<JointDetail>(`/api/joints/${this.id}`, {
+					method: 'PATCH',
+					body: JSON.stringify({ number, version: this.joint!.version })
+				}),
+			(joint) => this.showing(joint, `Renumbered: now weld ${joint.number}.`)
+		);
+
 	voidJoint = (reason: string) =>
 		this.run(
 			() => this.post<JointDetail>('void', { reason }),

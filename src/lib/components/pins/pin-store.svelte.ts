@@ -20,6 +20,8 @@ export interface PinItem {
 	y: number;
 	state: JointState;
 	needsReview: boolean;
+	/** Why it waits for review: moved with its number on the new revision, or not found there. */
+	reviewReason?: 'moved' | 'missing' | null;
 	version: number;
 }
 
@@ -72,6 +74,7 @@ export class PinStore {
 		pageIndex: number;
 		x: number;
 		y: number;
+		number?: string;
 		insertAfter?: string;
 		joint: Record<string, string>;
 	}) {
@@ -84,6 +87,15 @@ export class PinStore {
 		);
 		await this.refresh();
 		return created;
+	}
+
+	/** Take back a joint placed by mistake (its pin goes with it). */
+	async takeBack(jointId: number) {
+		try {
+			await callApi<null>(`/api/joints/${jointId}`, { method: 'DELETE' });
+		} finally {
+			await this.refresh();
+		}
 	}
 
 	/** Move a pin; on a stale version the pins are reloaded and the failure rethrown. */

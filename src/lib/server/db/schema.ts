@@ -51,6 +51,9 @@ export {
 	type WeldPass
 };
 export const DRAWING_KINDS = ['isometric', 'shop', 'structural'] as const;
+export type PinReviewReason = 'moved' | 'missing';
+export type SuggestionStatus = 'open' | 'accepted' | 'dismissed';
+export type ReadingStatus = 'queued' | 'reading' | 'done' | 'failed';
 export type DrawingKind = (typeof DRAWING_KINDS)[number];
 
 const now = sql`(cast(unixepoch('subsec') * 1000 as integer))`;
@@ -278,6 +281,8 @@ export const drawings = sqliteTable(
 		line: text('line').notNull().default(''),
 		area: text('area').notNull().default(''),
 		system: text('system').notNull().default(''),
+		/** Raised by every edit of the register data; an edit names the version it was based on. */
+		version: integer('version').notNull().default(1),
 		createdAt: createdAt()
 	},
 	(t) => [
@@ -365,6 +370,64 @@ export const sheetTiles = sqliteTable(
 	(t) => [
 		uniqueIndex('sheet_tiles_revision_page').on(t.revisionId, t.pageIndex),
 		index('sheet_tiles_status').on(t.status)
+	]
+);
+
+// Weld numbers read from the sheets --------------------------------------------------
+
+/**
+ * The reading of one revision's sheets for weld numbers (the finder, run in the background
+ * after upload or on demand), and what carrying the previous revision's pins gave.
+ */
+export const sheetReadings = sqliteTable('sheet_readings', {
+	revisionId: integer('revision_id')
+		.primaryKey()
+		.references(() => revisions.id, { onDelete: 'cascade' }),
+	status: text('status').$type<ReadingStatus>().notNull().default('queued'),
+	/** False when no sheet of the revision carries text (a scan). */
+	textLayer: integer('text_layer', { mode: 'boolean' }),
+	found: integer('found').notNull().default(0),
+	error: text('error'),
+	/** Pins carried from the previous revision: in place, moved to their number, or flagged. */
+	pinsCarried: integer('pins_carried'),
+	pinsMoved: integer('pins_moved'),
+	pinsFlagged: integer('pins_flagged'),
+	readMs: integer('read_ms'),
+	queuedAt: integer('queued_at').notNull().default(now),
+	finishedAt: integer('finished_at')
+});
+
+/**
+ * A weld number found on a sheet. `open`: not on the drawing yet, offered as a pin to accept;
+ * `accepted`: on the drawing (`jointId`), whether accepted here or already there when read;
+ * `dismissed`: turned down. Every label found is kept, so the next revision can be matched.
+ */
+export const sheetSuggestions = sqliteTable(
+	'sheet_suggestions',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		revisionId: integer('revision_id')
+			.notNull()
+			.references(() => revisions.id, { onDelete: 'cascade' }),
+		pageIndex: integer('page_index').notNull(),
+		number: text('number').notNull(),
+		/** PDF points: the centre of the printed number. */
+		x: real('x').notNull(),
+		y: real('y').notNull(),
+		/** The weld the label points at (leader, dot or tick), where a pin is best placed. */
+		targetX: real('target_x'),
+		targetY: real('target_y'),
+		status: text('status').$type<SuggestionStatus>().notNull().default('open'),
+		jointId: integer('joint_id').references((): AnySQLiteColumn => joints.id, {
+			onDelete: 'set null'
+		}),
+		decidedBy: text('decided_by').references(() => users.id),
+		decidedAt: integer('decided_at'),
+		createdAt: createdAt()
+	},
+	(t) => [
+		index('sheet_suggestions_revision_status').on(t.revisionId, t.status),
+		uniqueIndex('sheet_suggestions_revision_number').on(t.revisionId, t.number)
 	]
 );
 
@@ -457,6 +520,28 @@ export const joints = sqliteTable(
  * move or delete updates it in the same transaction. A migration that rebuilds `joints`
  * drops those triggers and must create them again; the counts test catches it if not.
  */
+/**
+ * A weld number a drawing used and gave up when its joint was renumbered: never handed out or
+ * typed again (`key` is the number in capitals, as numbers compare).
+ */
+export const retiredWeldNumbers = sqliteTable(
+	'retired_weld_numbers',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		drawingId: integer('drawing_id')
+			.notNull()
+			.references(() => drawings.id, { onDelete: 'cascade' }),
+		number: text('number').notNull(),
+		key: text('key').notNull(),
+		jointId: integer('joint_id').references((): AnySQLiteColumn => joints.id, {
+			onDelete: 'set null'
+		}),
+		retiredBy: text('retired_by').references(() => users.id),
+		retiredAt: integer('retired_at').notNull().default(now)
+	},
+	(t) => [uniqueIndex('retired_weld_numbers_drawing_key').on(t.drawingId, t.key)]
+);
+
 export const jointStateCounts = sqliteTable(
 	'joint_state_counts',
 	{
@@ -529,6 +614,11 @@ export const pins = sqliteTable(
 		x: real('x').notNull(),
 		y: real('y').notNull(),
 		needsReview: integer('needs_review', { mode: 'boolean' }).notNull().default(false),
+		/**
+		 * Why a carried pin waits for review: `moved` (its number was found elsewhere on the new
+		 * sheet and the pin went there), `missing` (not found; the weld may be gone), or null.
+		 */
+		reviewReason: text('review_reason').$type<PinReviewReason>(),
 		createdBy: text('created_by').references(() => users.id),
 		createdAt: createdAt(),
 		updatedAt: integer('updated_at').notNull().default(now)

@@ -18,6 +18,7 @@ export const load = (async ({ locals, url, parent }) => {
 		...page,
 		items: page.items.map((item) => ({ ...item, history: history.get(item.id) ?? [] })),
 		areas: drawings.areas(project.id),
-		canUpload: can(locals.user!, 'drawing.upload', project.id)
+		canUpload: can(locals.user!, 'drawing.upload', project.id),
+		canEdit: can(locals.user!, 'drawing.edit', project.id)
 	};
 }) satisfies PageServerLoad;

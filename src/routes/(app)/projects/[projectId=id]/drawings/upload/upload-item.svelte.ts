@@ -22,11 +22,27 @@ export function nextLabel(current: string | null): string {
 	return '';
 }
 
+/** What a new revision did with the pins of the one before, as the upload answer says. */
+export function carriedText(body: {
+	pinsCarried?: number;
+	pinsInPlace?: number | null;
+	pinsMoved?: number | null;
+	pinsFlagged?: number | null;
+}): string {
+	if (!body.pinsCarried) return '';
+	if (body.pinsInPlace == null)
+		return ` ${plural(body.pinsCarried, 'weld mark')} carried over, flagged to be checked while its sheets are read.`;
+	return ` ${plural(body.pinsCarried, 'weld mark')} carried over: ${body.pinsInPlace} in place, ${body.pinsMoved ?? 0} moved with their number and ${body.pinsFlagged ?? 0} not found; the moved and not-found marks wait to be checked.`;
+}
+
 export class UploadItem {
 	readonly file: File;
 	number = $state('');
 	title = $state('');
 	kind = $state<'isometric' | 'shop' | 'structural'>('isometric');
+	line = $state('');
+	area = $state('');
+	system = $state('');
 	label = $state('0');
 	note = $state('');
 	status = $state<UploadStatus>('ready');
@@ -75,6 +91,9 @@ export class UploadItem {
 			form.set('number', this.number.trim());
 			form.set('title', this.title);
 			form.set('kind', this.kind);
+			form.set('line', this.line);
+			form.set('area', this.area);
+			form.set('system', this.system);
 			form.set('revision', this.label.trim());
 			form.set('note', this.note);
 		}
@@ -102,6 +121,9 @@ export class UploadItem {
 					drawing?: { id: number };
 					revision?: { id: number; label: string };
 					pinsCarried?: number;
+					pinsInPlace?: number | null;
+					pinsMoved?: number | null;
+					pinsFlagged?: number | null;
 				} | null;
 				if (xhr.status === 201 && body?.revision) {
 					this.status = 'done';
@@ -109,11 +131,7 @@ export class UploadItem {
 					const drawingId = body.drawing?.id ?? match!.id;
 					this.resultHref = `/projects/${projectId}/drawings/${drawingId}`;
 					this.message = match
-						? `Revision ${body.revision.label} is now current; the previous one is superseded${
-								body.pinsCarried !== undefined
-									? `; ${plural(body.pinsCarried, 'weld mark')} carried to it`
-									: ''
-							}.`
+						? `Revision ${body.revision.label} is now current; the previous one is superseded.${carriedText(body)}`
 						: `Registered with revision ${body.revision.label}.`;
 				} else {
 					this.status = 'failed';

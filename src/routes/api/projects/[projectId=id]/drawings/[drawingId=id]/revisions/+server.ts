@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import * as drawings from '$lib/server/drawings';
+import * as sheetReadings from '$lib/server/sheet-readings';
 import * as staged from '$lib/server/staged-uploads';
 import { apiError, invalid } from '$lib/server/api';
 import { newRevisionSchema } from '$lib/schemas/drawing';
@@ -33,11 +34,16 @@ export const POST: RequestHandler = async ({ locals, params, request }) => {
 			locals.user!.id
 		);
 		const revision = drawings.revision(created.revisionId)!;
+		// The pins go over flagged; the reading of the new sheets (a few seconds) says which
+		// stayed in place, which moved with their number and which are flagged for review.
+		const read = await sheetReadings.settle(created.revisionId, sheetReadings.UPLOAD_WAIT_MS);
 		return json(
 			{
 				revision: drawings.revisionJson(revision),
 				superseded: created.superseded,
-				pinsCarried: created.pinsCarried
+				pinsCarried: created.pinsCarried,
+				...sheetReadings.carried(created.revisionId),
+				reading: read ? (sheetReadings.reading(created.revisionId)?.status ?? 'none') : 'running'
 			},
 			{ status: 201 }
 		);
