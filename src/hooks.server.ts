@@ -10,6 +10,7 @@ import * as guard from '$lib/server/sign-in-guard';
 import * as exportJobs from '$lib/server/exports';
 import { allowedMethods, routeRule, ruleFor } from '$lib/server/route-access';
 import { projectOf } from '$lib/server/route-project';
+import { idempotentWrites } from '$lib/server/idempotency';
 import { can, canGlobal, isMember } from '$lib/permissions';
 
 /** Open and migrate the database, start the mail stand-in, and seed an empty database. */
@@ -301,5 +302,6 @@ export const handle: Handle = sequence(
 	guardLinks,
 	endedSessions,
 	authentication,
-	authorize
+	authorize,
+	idempotentWrites
 );

@@ -29,13 +29,25 @@ export function isAbortError(error: unknown): boolean {
 	return error instanceof DOMException && error.name === 'AbortError';
 }
 
+const WRITES = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * A fresh `Idempotency-Key` for a write, so a retry of the same call is answered once by the
+ * server. Only in a secure context (https or localhost) does the browser offer randomUUID.
+ */
+export function newIdempotencyKey(): string | undefined {
+	return globalThis.crypto?.randomUUID?.();
+}
+
 export async function callApi<T>(url: string, init: RequestInit = {}): Promise<T> {
 	let response: Response;
+	const key = WRITES.has((init.method ?? 'GET').toUpperCase()) ? newIdempotencyKey() : undefined;
 	try {
 		response = await fetch(url, {
 			...init,
 			headers: {
 				...(init.body !== undefined ? { 'content-type': 'application/json' } : {}),
+				...(key ? { 'idempotency-key': key } : {}),
 				accept: 'application/json',
 				...(init.headers ?? {})
 			}
