@@ -46,7 +46,9 @@ export async function callApi<T>(url: string, init: RequestInit = {}): Promise<T
 		response = await fetch(url, {
 			...init,
 			headers: {
-				...(init.body !== undefined ? { 'content-type': 'application/json' } : {}),
+				...(init.body !== undefined && !(init.body instanceof FormData)
+					? { 'content-type': 'application/json' }
+					: {}),
 				...(key ? { 'idempotency-key': key } : {}),
 				accept: 'application/json',
 				...(init.headers ?? {})

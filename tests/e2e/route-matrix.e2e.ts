@@ -8,7 +8,8 @@ import path from 'node:path';
 import { expect, request as newRequest, test, type APIRequestContext } from '@playwright/test';
 import { ROUTES, type Rule } from '../../src/lib/server/route-access';
 import { can, canGlobal, isMember, type Principal } from '../../src/lib/permissions';
-import { BASE_URL, DEMO_USERS, signedInClient } from './support';
+import sharp from 'sharp';
+import { BASE_URL, DEMO_USERS, readDatabase, signedInClient } from './support';
 
 interface Endpoint {
 	routeId: string;
@@ -179,6 +180,27 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			data: { scope: { all: true } }
 		});
 		const exportId = ((await started.json()) as { id: number }).id;
+		// An inspection record of the project, with a photo on it.
+		const inspectionId = readDatabase(
+			(db) =>
+				(
+					db
+						.prepare(
+							'select i.id from inspections i join joints j on j.id = i.joint_id where j.project_id = ? order by i.id limit 1'
+						)
+						.get(projectId) as { id: number }
+				).id
+		);
+		const jpeg = await sharp({
+			create: { width: 64, height: 48, channels: 3, background: '#888888' }
+		})
+			.jpeg()
+			.toBuffer();
+		const photo = await admin.post(`/api/inspections/${inspectionId}/photos`, {
+			headers: { origin: BASE_URL },
+			multipart: { file: { name: 'matrix.jpg', mimeType: 'image/jpeg', buffer: jpeg } }
+		});
+		const photoId = ((await photo.json()) as { photo: { id: number } }).photo.id;
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
@@ -186,6 +208,8 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
 			exportId: String(exportId),
+			inspectionId: String(inspectionId),
+			photoId: String(photoId),
 			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
 			page: '0',
 			level: '0',

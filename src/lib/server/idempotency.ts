@@ -12,6 +12,7 @@ import { json, type Handle } from '@sveltejs/kit';
 import { and, eq, lt } from 'drizzle-orm';
 import { getDb, schema } from './db';
 import { writeClaims, type WriteClaim } from './db/write-claim';
+import * as staged from './staged-uploads';
 
 export const IDEMPOTENCY_HEADER = 'idempotency-key';
 const WRITES = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
@@ -51,8 +52,24 @@ export async function requestHash(request: Request, path: string): Promise<strin
 			// Not a readable form: the raw bytes below, and the route answers it as it is.
 		}
 	}
-	hash.update(new Uint8Array(await request.clone().arrayBuffer()));
+	const bytes = new Uint8Array(await request.clone().arrayBuffer());
+	// A file the upload stage streamed to disk arrives as a single-use token: its content counts.
+	const file = type.startsWith('application/json') ? stagedFile(bytes) : undefined;
+	hash.update(file ?? bytes);
 	return hash.digest('hex');
+}
+
+function stagedFile(bytes: Uint8Array): string | undefined {
+	try {
+		const body = JSON.parse(new TextDecoder().decode(bytes)) as {
+			staged?: unknown;
+			fields?: unknown;
+		};
+		const file = staged.peek(body.staged);
+		return file && `staged ${file.sha256} ${file.bytes} ${JSON.stringify(body.fields ?? {})}`;
+	} catch {
+		return undefined;
+	}
 }
 
 function stored(userId: string, key: string) {

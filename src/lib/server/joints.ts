@@ -10,6 +10,7 @@ import * as audit from './audit';
 import * as projects from './projects';
 import * as criteriaSets from './criteria-sets';
 import * as events from './events';
+import * as photos from './photos';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -188,6 +189,7 @@ export function detail(jointId: number) {
 		.where(eq(schema.inspections.jointId, jointId))
 		.orderBy(asc(schema.inspections.inspectedAt), asc(schema.inspections.id))
 		.all();
+	const photosOf = photos.byInspection(inspections.map((record) => record.id));
 	const pinIds = pins.map((pin) => String(pin.pinId));
 	const changes = db
 		.select({
@@ -242,7 +244,10 @@ export function detail(jointId: number) {
 				.filter((s) => s.weldId === w.id)
 				.map(({ pass, stamp, name }) => ({ pass, stamp, name }))
 		})),
-		inspections,
+		inspections: inspections.map((record) => ({
+			...record,
+			photos: photosOf.get(record.id) ?? []
+		})),
 		changes
 	};
 }

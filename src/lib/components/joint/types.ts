@@ -73,6 +73,8 @@ export interface JointDetail {
 		technician: string | null;
 		inspector: string | null;
 		readings: { id: string; text: string; value: number | boolean | null; unit: string | null }[];
+		/** Photos attached to the record, oldest first. */
+		photos: { id: number; caption: string; width: number; height: number }[];
 	}[];
 	changes: {
 		at: number;

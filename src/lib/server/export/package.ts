@@ -24,7 +24,8 @@ import * as storage from '../storage';
 import * as pins from '../pins';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
-import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
+import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx, type PhotoFile } from './records';
+import * as photos from '../photos';
 import { preview, recordsAsOf, resolve } from './scope';
 
 export interface PackageJob {
@@ -146,14 +147,24 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	const csv = await weldLogCsv(rows);
 	job.checkpoint();
 	job.onProgress(0.92, 'Inspection records');
-	const inspections = inspectionsCsv(job.request, drawings);
+	const photoFiles: PhotoFile[] = [];
+	const inspections = inspectionsCsv(job.request, drawings, photoFiles);
+	job.checkpoint();
+	// The records' photos, as stored (re-encoded at upload), named as inspections.csv names them.
+	const photoEntries: { name: string; bytes: Uint8Array }[] = [];
+	for (const file of photoFiles) {
+		const photo = photos.get(file.photoId);
+		if (photo)
+			photoEntries.push({ name: file.name, bytes: await storage.readAll(photo.storageKey) });
+	}
 	job.checkpoint();
 
 	const files: { name: string; bytes: Uint8Array }[] = [
 		{ name: 'marked-up-set.pdf', bytes: set.bytes },
 		{ name: 'weld-log.xlsx', bytes: xlsx },
 		{ name: 'weld-log.csv', bytes: csv },
-		{ name: 'inspections.csv', bytes: inspections }
+		{ name: 'inspections.csv', bytes: inspections },
+		...photoEntries
 	];
 	const problems = set.entries.filter((e) => e.problem);
 	const manifest = {

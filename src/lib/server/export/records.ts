@@ -7,6 +7,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from '../db';
 import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
+import * as photos from '../photos';
 import { weldLogFilter } from '$lib/schemas/weld-log';
 import { correctionsOf, displayWeldNumber } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
@@ -64,6 +65,12 @@ export async function weldLogXlsx(
 
 // inspections.csv ---------------------------------------------------------------------------
 
+/** A photo of a record in the set: its name there (under `photos/`) and its id. */
+export interface PhotoFile {
+	name: string;
+	photoId: number;
+}
+
 const HEADERS = [
 	'Drawing',
 	'Weld no.',
@@ -83,7 +90,8 @@ const HEADERS = [
 	'Criteria set',
 	'Record id',
 	'Corrects record',
-	'Stands'
+	'Stands',
+	'Photos'
 ];
 
 function shownValue(value: number | boolean | null, unit: string | null): string {
@@ -99,7 +107,12 @@ const CHUNK = 2000;
  * Every inspection record of the joints in scope, corrections included (each names the row
  * it corrects), ordered by drawing, weld number and time so the file reads as a history.
  */
-export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
+export function inspectionsCsv(
+	request: ExportRequest,
+	drawings: readonly ScopeDrawing[],
+	/** Filled with the photos of the records written, by their name in the set. */
+	photoFiles: PhotoFile[] = []
+): Buffer {
 	const i = schema.inspections;
 	const j = schema.joints;
 	const lines: string[] = [csvLine(HEADERS)];
@@ -151,8 +164,14 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 		);
 		// A drawing's joints sit in one chunk, so every correction is beside the row it names.
 		const correctedBy = correctionsOf(rows);
+		const photosOf = photos.byInspection(rows.map((row) => row.id));
 		for (const row of rows) {
 			const correction = correctedBy.get(row.id);
+			const names = (photosOf.get(row.id) ?? []).map((photo) => {
+				const name = `photos/record-${row.id}-photo-${photo.id}.jpg`;
+				photoFiles.push({ name, photoId: photo.id });
+				return name;
+			});
 			lines.push(
 				csvLine([
 					numberOf.get(row.drawingId) ?? '',
@@ -178,7 +197,8 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						: '',
 					row.id,
 					row.supersedesId ?? '',
-					correction ? `no: corrected by ${correction.id}` : 'yes'
+					correction ? `no: corrected by ${correction.id}` : 'yes',
+					names.join('; ')
 				])
 			);
 		}
