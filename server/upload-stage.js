@@ -236,7 +236,10 @@ export function createUploadStage({ uploadsDir, maxMb, photoMb = photoMaxMb() })
 	 * @param {string} pathname
 	 */
 	async function handle(req, res, route, pathname) {
-		const self = `http://127.0.0.1:${req.socket.localPort}`;
+		// Under TLS (server.js), the app is asked through its plain loopback listener.
+		const self =
+			/** @type {{ tacksheetSelfOrigin?: string }} */ (globalThis).tacksheetSelfOrigin ??
+			`http://127.0.0.1:${req.socket.localPort}`;
 		const drain = () => req.resume();
 		// Browsers send their session cookie cross-site too; only our own pages may post with it.
 		// A script with a personal API token and no cookie has no origin to check (the permit

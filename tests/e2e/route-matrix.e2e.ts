@@ -168,6 +168,7 @@ const callers: { label: string; email: string | null; principal: Principal | nul
 /** Real ids in each demo project, so every route parameter names something that exists. */
 async function demoIds(): Promise<Record<number, Record<string, string>>> {
 	const admin = await signedInClient('admin@tacksheet.test');
+	const inspector = await signedInClient('inspector@tacksheet.test');
 	const ids: Record<number, Record<string, string>> = {};
 	for (const projectId of [1, 2]) {
 		const first = (await (await admin.get(`/api/projects/${projectId}/drawings?pageSize=1`)).json())
@@ -196,7 +197,8 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		})
 			.jpeg()
 			.toBuffer();
-		const photo = await admin.post(`/api/inspections/${inspectionId}/photos`, {
+		// Photos are attached by inspectors, who work on both demo projects.
+		const photo = await inspector.post(`/api/inspections/${inspectionId}/photos`, {
 			headers: { origin: BASE_URL },
 			multipart: { file: { name: 'matrix.jpg', mimeType: 'image/jpeg', buffer: jpeg } }
 		});
@@ -217,6 +219,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		};
 	}
 	await admin.dispose();
+	await inspector.dispose();
 	return ids;
 }
 
