@@ -52,7 +52,9 @@ export default defineConfig({
 			AUTH_SECRET: 'e2e-secret-not-for-production-0123456789abcdef',
 			TACKSHEET_DEMO: '1',
 			// Small enough that the over-limit test stays quick.
-			UPLOAD_MAX_MB: '25'
+			UPLOAD_MAX_MB: '25',
+			// Photos: small, so the over-limit photo test stays quick.
+			PHOTO_MAX_MB: '2'
 		}
 	}
 });

@@ -2,7 +2,9 @@
 // drawing uploads streamed to disk in front of it (server/upload-stage.js), since SvelteKit
 // and adapter-node's body limit would hold a whole upload in memory.
 import http from 'node:http';
+import https from 'node:https';
 import { createUploadStage } from './server/upload-stage.js';
+import { tlsOptions } from './server/tls.js';
 import { DEFAULT_UPLOADS_DIR, uploadMaxMb } from './server/defaults.js';
 
 const BASELINE_HEADERS = {
@@ -22,12 +24,24 @@ export async function startServer() {
 	});
 	const port = Number(process.env.PORT || 3000);
 	const host = process.env.HOST || '0.0.0.0';
-	const server = http.createServer((req, res) => {
+	/** @type {import('node:http').RequestListener} */
+	const listener = (req, res) => {
 		// Every answer, the static files and the upload stage's too, carries these; SvelteKit's
 		// own headers (a page's Content-Security-Policy) replace them where it sets one.
 		for (const [name, value] of Object.entries(BASELINE_HEADERS)) res.setHeader(name, value);
 		stage(req, res, () => handler(req, res));
-	});
+	};
+	const tls = tlsOptions();
+	const server = tls ? https.createServer(tls, listener) : http.createServer(listener);
+	if (tls) {
+		// The upload stage asks the app itself over loopback: a plain listener on 127.0.0.1 only.
+		const inside = http.createServer(listener);
+		await new Promise((resolve) => inside.listen(0, '127.0.0.1', () => resolve(undefined)));
+		const address = /** @type {import('node:net').AddressInfo} */ (inside.address());
+		/** @type {{ tacksheetSelfOrigin?: string }} */ (globalThis).tacksheetSelfOrigin =
+			`http://127.0.0.1:${address.port}`;
+		inside.unref();
+	}
 	// Big drawings over a site connection take a while: no request timeout, but idle sockets close.
 	server.requestTimeout = 0;
 	server.headersTimeout = 60_000;

@@ -16,3 +16,12 @@ export function uploadMaxMb(value = process.env.UPLOAD_MAX_MB) {
 	const n = Number(value);
 	return Number.isFinite(n) && n > 0 ? n : DEFAULT_UPLOAD_MAX_MB;
 }
+
+/** The largest photo upload, in megabytes (PHOTO_MAX_MB). */
+export const DEFAULT_PHOTO_MAX_MB = 25;
+
+/** A positive number of megabytes from the environment, or the default. */
+export function photoMaxMb(value = process.env.PHOTO_MAX_MB) {
+	const n = Number(value);
+	return Number.isFinite(n) && n > 0 ? n : DEFAULT_PHOTO_MAX_MB;
+}

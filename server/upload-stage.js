@@ -8,12 +8,13 @@ import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import multer from 'multer';
+import { photoMaxMb } from './defaults.js';
 
 /** @typedef {import('node:http').IncomingMessage & { file?: StagedFile, body?: Record<string, string> }} UploadRequest */
 /** @typedef {import('node:http').ServerResponse} Response */
 /** @typedef {{ path: string, size: number, sha256: string, originalname: string }} StagedFile */
 /** @typedef {{ tempPath: string, bytes: number, sha256: string, originalName: string, createdAt: number }} Staged */
-/** @typedef {{ pattern: RegExp, permit: (m: RegExpExecArray) => string }} UploadRoute */
+/** @typedef {{ pattern: RegExp, permit: (m: RegExpExecArray) => string, kind?: 'pdf' | 'photo' }} UploadRoute */
 
 /** @type {UploadRoute[]} */
 const ROUTES = [
@@ -24,6 +25,12 @@ const ROUTES = [
 	{
 		pattern: /^\/api\/projects\/(\d+)\/drawings\/(\d+)\/revisions\/?$/,
 		permit: (m) => `/api/projects/${m[1]}/upload-permit?drawing=${m[2]}`
+	},
+	// A photo's bytes are judged by the app (it decodes them); only its size is bounded here.
+	{
+		pattern: /^\/api\/inspections\/(\d+)\/photos\/?$/,
+		permit: (m) => `/api/inspections/${m[1]}/photo-permit`,
+		kind: 'photo'
 	}
 ];
 
@@ -62,11 +69,13 @@ function sendJson(res, status, body) {
 }
 
 /**
- * Multer storage that writes to a temporary file, hashes while writing and checks the magic bytes.
+ * Multer storage that writes to a temporary file, hashes while writing and checks the magic bytes
+ * of a PDF (a photo is checked by the app, which decodes it).
  * @param {string} tmpDir
+ * @param {boolean} [pdf]
  * @returns {import('multer').StorageEngine}
  */
-function stagingStorage(tmpDir) {
+function stagingStorage(tmpDir, pdf = true) {
 	return {
 		_handleFile(_req, file, callback) {
 			const tempPath = path.join(tmpDir, `${crypto.randomUUID()}.part`);
@@ -90,7 +99,7 @@ function stagingStorage(tmpDir) {
 				if (head.length < 1024) {
 					head = Buffer.concat([head, chunk]).subarray(0, 1024);
 					// The PDF header may follow a few bytes of junk, but must come within the first 1 KB.
-					if (head.length === 1024 && head.indexOf(PDF_MAGIC) < 0) {
+					if (pdf && head.length === 1024 && head.indexOf(PDF_MAGIC) < 0) {
 						fail(new UploadError(415, 'That file is not a PDF. Upload the drawing as a PDF file.'));
 					}
 				}
@@ -99,7 +108,7 @@ function stagingStorage(tmpDir) {
 			out.on('error', fail);
 			out.on('finish', () => {
 				if (failed) return;
-				if (head.indexOf(PDF_MAGIC) < 0) {
+				if (pdf && head.indexOf(PDF_MAGIC) < 0) {
 					return fail(
 						new UploadError(415, 'That file is not a PDF. Upload the drawing as a PDF file.')
 					);
@@ -148,6 +157,18 @@ function credentials(req) {
 }
 
 /**
+ * The write's Idempotency-Key, passed on with the staged file so a photo sent twice is stored once.
+ * @param {UploadRequest} req
+ */
+function idempotencyKey(req) {
+	/** @type {Record<string, string>} */
+	const headers = {};
+	const key = req.headers['idempotency-key'];
+	if (typeof key === 'string') headers['idempotency-key'] = key;
+	return headers;
+}
+
+/**
  * @param {globalThis.Response} response
  * @param {Response} res
  */
@@ -160,10 +181,10 @@ async function relay(response, res) {
 }
 
 /**
- * @param {{ uploadsDir: string, maxMb: number }} options
+ * @param {{ uploadsDir: string, maxMb: number, photoMb?: number }} options
  * @returns {(req: import('node:http').IncomingMessage, res: import('node:http').ServerResponse, next: () => void) => void}
  */
-export function createUploadStage({ uploadsDir, maxMb }) {
+export function createUploadStage({ uploadsDir, maxMb, photoMb = photoMaxMb() }) {
 	const tmpDir = path.join(path.resolve(uploadsDir), 'tmp');
 	fs.mkdirSync(tmpDir, { recursive: true });
 	// Anything left from a crash is unfinished; nobody holds a reference to it.
@@ -172,6 +193,11 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 	const upload = multer({
 		storage: stagingStorage(tmpDir),
 		limits: { fileSize: maxBytes, files: 1, fields: 20, fieldSize: 64 * 1024, parts: 24 }
+	}).single('file');
+	const photoBytes = photoMb * 1024 * 1024;
+	const uploadPhoto = multer({
+		storage: stagingStorage(tmpDir, false),
+		limits: { fileSize: photoBytes, files: 1, fields: 20, fieldSize: 64 * 1024, parts: 24 }
 	}).single('file');
 
 	setInterval(() => {
@@ -210,7 +236,10 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 	 * @param {string} pathname
 	 */
 	async function handle(req, res, route, pathname) {
-		const self = `http://127.0.0.1:${req.socket.localPort}`;
+		// Under TLS (server.js), the app is asked through its plain loopback listener.
+		const self =
+			/** @type {{ tacksheetSelfOrigin?: string }} */ (globalThis).tacksheetSelfOrigin ??
+			`http://127.0.0.1:${req.socket.localPort}`;
 		const drain = () => req.resume();
 		// Browsers send their session cookie cross-site too; only our own pages may post with it.
 		// A script with a personal API token and no cookie has no origin to check (the permit
@@ -232,15 +261,17 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 			drain();
 			return relay(permit, res);
 		}
+		const photo = route.kind === 'photo';
+		const limitMb = photo ? photoMb : maxMb;
 		const declared = Number(req.headers['content-length']);
-		if (Number.isFinite(declared) && declared > maxBytes + 1024 * 1024) {
+		if (Number.isFinite(declared) && declared > limitMb * 1024 * 1024 + 1024 * 1024) {
 			drain();
-			return sendJson(res, 413, { error: `The file is larger than the ${maxMb} MB limit.` });
+			return sendJson(res, 413, { error: `The file is larger than the ${limitMb} MB limit.` });
 		}
 
 		/** @type {{ error?: unknown, file?: StagedFile, fields: Record<string, string> }} */
 		const staged = await new Promise((resolve) => {
-			upload(
+			(photo ? uploadPhoto : upload)(
 				/** @type {import('express').Request} */ (/** @type {unknown} */ (req)),
 				/** @type {import('express').Response} */ (/** @type {unknown} */ (res)),
 				(/** @type {unknown} */ error) => resolve({ error, file: req.file, fields: req.body ?? {} })
@@ -252,13 +283,17 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 			if (staged.error instanceof UploadError)
 				return sendJson(res, staged.error.status, { error: staged.error.message });
 			if (staged.error instanceof multer.MulterError && staged.error.code === 'LIMIT_FILE_SIZE') {
-				return sendJson(res, 413, { error: `The file is larger than the ${maxMb} MB limit.` });
+				return sendJson(res, 413, { error: `The file is larger than the ${limitMb} MB limit.` });
 			}
 			const reason = staged.error instanceof Error ? staged.error.message : String(staged.error);
 			return sendJson(res, 400, { error: `The upload could not be read: ${reason}.` });
 		}
 		if (!staged.file)
-			return sendJson(res, 400, { error: 'Attach the drawing as a PDF in the "file" field.' });
+			return sendJson(res, 400, {
+				error: photo
+					? 'Attach the photo in the "file" field.'
+					: 'Attach the drawing as a PDF in the "file" field.'
+			});
 
 		const token = crypto.randomBytes(24).toString('base64url');
 		registry().set(token, {
@@ -271,7 +306,11 @@ export function createUploadStage({ uploadsDir, maxMb }) {
 		try {
 			const response = await fetch(self + pathname, {
 				method: 'POST',
-				headers: { ...credentials(req), 'content-type': 'application/json' },
+				headers: {
+					...credentials(req),
+					...idempotencyKey(req),
+					'content-type': 'application/json'
+				},
 				body: JSON.stringify({ staged: token, fields: { ...staged.fields } }),
 				redirect: 'manual'
 			});

@@ -11,6 +11,7 @@ import * as exportJobs from '$lib/server/exports';
 import * as nde from '$lib/server/nde';
 import { allowedMethods, routeRule, ruleFor } from '$lib/server/route-access';
 import { projectOf } from '$lib/server/route-project';
+import { idempotentWrites } from '$lib/server/idempotency';
 import { can, canGlobal, isMember } from '$lib/permissions';
 
 /** Open and migrate the database, start the mail stand-in, and seed an empty database. */
@@ -304,5 +305,6 @@ export const handle: Handle = sequence(
 	guardLinks,
 	endedSessions,
 	authentication,
-	authorize
+	authorize,
+	idempotentWrites
 );

@@ -16,7 +16,12 @@ describe('callApi', () => {
 		expect(fetch.mock.calls[0]).toEqual([
 			'/api/x',
 			expect.objectContaining({
-				headers: { 'content-type': 'application/json', accept: 'application/json' }
+				headers: {
+					'content-type': 'application/json',
+					// A write carries a fresh key, so a retry of it is answered once.
+					'idempotency-key': expect.stringMatching(/^[0-9a-f-]{36}$/),
+					accept: 'application/json'
+				}
 			})
 		]);
 	});

@@ -47,13 +47,27 @@ export function statusText(status: number): string {
 	return `The request was refused (error ${status}). Reload the page and try again.`;
 }
 
+const WRITES = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+
+/**
+ * A fresh `Idempotency-Key` for a write, so a retry of the same call is answered once by the
+ * server. Only in a secure context (https or localhost) does the browser offer randomUUID.
+ */
+export function newIdempotencyKey(): string | undefined {
+	return globalThis.crypto?.randomUUID?.();
+}
+
 export async function callApi<T>(url: string, init: RequestInit = {}): Promise<T> {
 	let response: Response;
+	const key = WRITES.has((init.method ?? 'GET').toUpperCase()) ? newIdempotencyKey() : undefined;
 	try {
 		response = await fetch(url, {
 			...init,
 			headers: {
-				...(init.body !== undefined ? { 'content-type': 'application/json' } : {}),
+				...(init.body !== undefined && !(init.body instanceof FormData)
+					? { 'content-type': 'application/json' }
+					: {}),
+				...(key ? { 'idempotency-key': key } : {}),
 				accept: 'application/json',
 				...(init.headers ?? {})
 			}

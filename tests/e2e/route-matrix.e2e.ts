@@ -8,7 +8,8 @@ import path from 'node:path';
 import { expect, request as newRequest, test, type APIRequestContext } from '@playwright/test';
 import { ROUTES, type Rule } from '../../src/lib/server/route-access';
 import { can, canGlobal, isMember, type Principal } from '../../src/lib/permissions';
-import { BASE_URL, DEMO_USERS, signedInClient } from './support';
+import sharp from 'sharp';
+import { BASE_URL, DEMO_USERS, readDatabase, signedInClient } from './support';
 
 interface Endpoint {
 	routeId: string;
@@ -167,6 +168,7 @@ const callers: { label: string; email: string | null; principal: Principal | nul
 /** Real ids in each demo project, so every route parameter names something that exists. */
 async function demoIds(): Promise<Record<number, Record<string, string>>> {
 	const admin = await signedInClient('admin@tacksheet.test');
+	const inspector = await signedInClient('inspector@tacksheet.test');
 	const ids: Record<number, Record<string, string>> = {};
 	for (const projectId of [1, 2]) {
 		const first = (await (await admin.get(`/api/projects/${projectId}/drawings?pageSize=1`)).json())
@@ -184,6 +186,28 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		const wps = (await (await admin.get(`/api/projects/${projectId}/wps`)).json()) as {
 			items: { id: number }[];
 		};
+		// An inspection record of the project, with a photo on it.
+		const inspectionId = readDatabase(
+			(db) =>
+				(
+					db
+						.prepare(
+							'select i.id from inspections i join joints j on j.id = i.joint_id where j.project_id = ? order by i.id limit 1'
+						)
+						.get(projectId) as { id: number }
+				).id
+		);
+		const jpeg = await sharp({
+			create: { width: 64, height: 48, channels: 3, background: '#888888' }
+		})
+			.jpeg()
+			.toBuffer();
+		// Photos are attached by inspectors, who work on both demo projects.
+		const photo = await inspector.post(`/api/inspections/${inspectionId}/photos`, {
+			headers: { origin: BASE_URL },
+			multipart: { file: { name: 'matrix.jpg', mimeType: 'image/jpeg', buffer: jpeg } }
+		});
+		const photoId = ((await photo.json()) as { photo: { id: number } }).photo.id;
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
@@ -193,6 +217,8 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 			exportId: String(exportId),
 			lotId: String(lot.id),
 			wpsId: String(wps.items[0].id),
+			inspectionId: String(inspectionId),
+			photoId: String(photoId),
 			// The first tile of the first sheet (there or not yet, the rule is the PDF's).
 			page: '0',
 			level: '0',
@@ -200,6 +226,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		};
 	}
 	await admin.dispose();
+	await inspector.dispose();
 	return ids;
 }
 

@@ -16,6 +16,7 @@ export const AUDIT_ACTIONS = [
 	'inspection_correct',
 	'weld',
 	'inspection_request',
+	'photo',
 	// welders
 	'continuity',
 	'qualify',

@@ -16,6 +16,7 @@ import * as nde from './nde';
 import * as wpsRegister from './wps';
 import { jointDesign, rangeFlags, wpsLabel } from '$lib/wps-register';
 import { config } from './config';
+import * as photos from './photos';
 import {
 	deriveJointState,
 	displayWeldNumber,
@@ -197,6 +198,7 @@ export function detail(jointId: number) {
 		.where(eq(schema.inspections.jointId, jointId))
 		.orderBy(asc(schema.inspections.inspectedAt), asc(schema.inspections.id))
 		.all();
+	const photosOf = photos.byInspection(inspections.map((record) => record.id));
 	const pinIds = pins.map((pin) => String(pin.pinId));
 	const changes = db
 		.select({
@@ -292,7 +294,10 @@ export function detail(jointId: number) {
 				.filter((s) => s.weldId === w.id)
 				.map(({ pass, stamp, name }) => ({ pass, stamp, name }))
 		})),
-		inspections,
+		inspections: inspections.map((record) => ({
+			...record,
+			photos: photosOf.get(record.id) ?? []
+		})),
 		changes,
 		notice: CAUTION
 	};

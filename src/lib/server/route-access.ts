@@ -128,6 +128,14 @@ export const ROUTES: Record<string, RouteRules> = {
 		POST: project('inspection.record')
 	},
 	'/api/joints/[jointId=id]/welds': { GET: project('project.read'), POST: project('weld.record') },
+	// -- photos on inspection records --
+	'/api/inspections/[inspectionId=id]/photos': {
+		GET: project('project.read'),
+		POST: project('inspection.record')
+	},
+	'/api/inspections/[inspectionId=id]/photo-permit': { GET: project('inspection.record') },
+	'/api/photos/[photoId=id]': { GET: project('project.read') },
+	'/api/photos/[photoId=id]/thumbnail': { GET: project('project.read') },
 	// -- weld log, summary and progress: entries below --
 	'/(app)/projects/[projectId=id]/log': { GET: project('project.read') },
 	'/(app)/projects/[projectId=id]/progress': { GET: project('project.read') },

@@ -63,6 +63,25 @@ function projectOfLot(lotId: number): number | undefined {
 		.get()?.projectId;
 }
 
+function projectOfInspection(inspectionId: number): number | undefined {
+	return db
+		.select({ projectId: schema.joints.projectId })
+		.from(schema.inspections)
+		.innerJoin(schema.joints, eq(schema.joints.id, schema.inspections.jointId))
+		.where(eq(schema.inspections.id, inspectionId))
+		.get()?.projectId;
+}
+
+function projectOfPhoto(photoId: number): number | undefined {
+	return db
+		.select({ projectId: schema.joints.projectId })
+		.from(schema.photos)
+		.innerJoin(schema.inspections, eq(schema.inspections.id, schema.photos.inspectionId))
+		.innerJoin(schema.joints, eq(schema.joints.id, schema.inspections.jointId))
+		.where(eq(schema.photos.id, photoId))
+		.get()?.projectId;
+}
+
 /** The project's id, or null when the route has no project or an id in it does not exist. */
 export function projectOf(params: Partial<Record<string, string>>): number | null {
 	const found = new Set<number | undefined>();
@@ -99,6 +118,8 @@ export function projectOf(params: Partial<Record<string, string>>): number | nul
 	if (params.exportId) found.add(projectOfExport(Number(params.exportId)));
 	if (params.lotId) found.add(projectOfLot(Number(params.lotId)));
 	if (params.wpsId) found.add(projectOfWps(Number(params.wpsId)));
+	if (params.inspectionId) found.add(projectOfInspection(Number(params.inspectionId)));
+	if (params.photoId) found.add(projectOfPhoto(Number(params.photoId)));
 	if (found.size !== 1) return null;
 	const [projectId] = found;
 	return projectId ?? null;

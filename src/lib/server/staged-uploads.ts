@@ -19,6 +19,11 @@ function registry(): Map<string, StagedUpload> {
 	return holder.tacksheetStagedUploads;
 }
 
+/** The staged file for a token, leaving it staged (for the fingerprint of a write). */
+export function peek(token: unknown): StagedUpload | undefined {
+	return typeof token === 'string' ? registry().get(token) : undefined;
+}
+
 /** The staged file for a token, once: the caller must adopt or discard it. */
 export function take(token: unknown): StagedUpload | undefined {
 	if (typeof token !== 'string') return undefined;

@@ -9,6 +9,7 @@ import { drizzle, type BetterSQLite3Database } from 'drizzle-orm/better-sqlite3'
 import { migrate as runMigrations } from 'drizzle-orm/better-sqlite3/migrator';
 import * as schema from './schema';
 import { config } from '../config';
+import { withClaim } from './write-claim';
 
 export type Db = BetterSQLite3Database<typeof schema> & { $client: Database.Database };
 
@@ -53,9 +54,24 @@ export function getDb(): Db {
 	return globalForDb.tacksheetDb;
 }
 
+/**
+ * A transaction that also claims the request's `Idempotency-Key` (see `write-claim.ts`), so
+ * the key commits with the write it belongs to.
+ */
+function claimingTransaction(real: Db): Db['transaction'] {
+	return ((work, options) =>
+		withClaim(real.$client, (claim) =>
+			real.transaction((tx) => {
+				claim();
+				return work(tx);
+			}, options)
+		)) as Db['transaction'];
+}
+
 export const db: Db = new Proxy({} as Db, {
 	get(_target, property) {
 		const real = getDb();
+		if (property === 'transaction') return claimingTransaction(real);
 		const value = Reflect.get(real, property, real);
 		return typeof value === 'function' ? value.bind(real) : value;
 	}

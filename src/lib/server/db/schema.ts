@@ -189,6 +189,8 @@ export const projects = sqliteTable('projects', {
 		.$type<NdeLotRule>()
 		.notNull()
 		.default({ groupBy: 'line', percent: { RT: 5 }, everyWelder: true }),
+	/** Photos keep their GPS position (off: location data is dropped at upload). */
+	photosKeepLocation: integer('photos_keep_location', { mode: 'boolean' }).notNull().default(false),
 	createdAt: createdAt()
 });
 
@@ -744,6 +746,34 @@ export const inspections = sqliteTable(
 	]
 );
 
+/**
+ * A photo attached to an inspection record, as re-encoded by the server (JPEG, no metadata
+ * unless the project keeps location) with a small WebP thumbnail beside it in storage.
+ */
+export const photos = sqliteTable(
+	'photos',
+	{
+		id: integer('id').primaryKey({ autoIncrement: true }),
+		inspectionId: integer('inspection_id')
+			.notNull()
+			.references(() => inspections.id, { onDelete: 'cascade' }),
+		/** Storage key of the image; the thumbnail is the same key with `.thumb.webp`. */
+		storageKey: text('storage_key').notNull(),
+		sha256: text('sha256').notNull(),
+		bytes: integer('bytes').notNull(),
+		width: integer('width').notNull(),
+		height: integer('height').notNull(),
+		thumbBytes: integer('thumb_bytes').notNull(),
+		caption: text('caption').notNull().default(''),
+		keptLocation: integer('kept_location', { mode: 'boolean' }).notNull().default(false),
+		uploadedBy: text('uploaded_by')
+			.notNull()
+			.references(() => users.id),
+		createdAt: createdAt()
+	},
+	(t) => [index('photos_inspection').on(t.inspectionId, t.createdAt)]
+);
+
 /** A hold point called by the foreman: one row per joint, grouped by batch. */
 export const inspectionRequests = sqliteTable(
 	'inspection_requests',
@@ -1064,6 +1094,32 @@ export const auditEvents = sqliteTable(
 	]
 );
 
+/**
+ * A write sent with an `Idempotency-Key`, per user: the request it came with (hash of method,
+ * path and body) and the answer it got. The key is claimed inside the write's own transaction,
+ * so a stored record and its key commit together; `status` is null until the answer is known.
+ */
+export const idempotencyKeys = sqliteTable(
+	'idempotency_keys',
+	{
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		key: text('key').notNull(),
+		requestHash: text('request_hash').notNull(),
+		method: text('method').notNull(),
+		path: text('path').notNull(),
+		status: integer('status'),
+		contentType: text('content_type'),
+		body: text('body'),
+		createdAt: createdAt()
+	},
+	(t) => [
+		primaryKey({ columns: [t.userId, t.key] }),
+		index('idempotency_keys_time').on(t.createdAt)
+	]
+);
+
 /** What the local stand-in SMTP server received, for the admin's mail page. */
 export const mailMessages = sqliteTable(
 	'mail_messages',
@@ -1093,4 +1149,5 @@ export type Pin = typeof pins.$inferSelect;
 export type Weld = typeof welds.$inferSelect;
 export type Welder = typeof welders.$inferSelect;
 export type Inspection = typeof inspections.$inferSelect;
+export type Photo = typeof photos.$inferSelect;
 export type AuditEvent = typeof auditEvents.$inferSelect;

@@ -28,7 +28,8 @@ import * as nde from '../nde';
 import { describeScope, type ExportRequest } from '$lib/schemas/export';
 import { isComplete } from '$lib/joint-state';
 import { buildMarkedUpSet, type IndexEntry } from './marked-up-set';
-import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx } from './records';
+import { inspectionsCsv, weldLogCsv, weldLogRows, weldLogXlsx, type PhotoFile } from './records';
+import * as photos from '../photos';
 import { preview, recordsAsOf, resolve } from './scope';
 
 export interface PackageJob {
@@ -148,7 +149,16 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 	const csv = await weldLogCsv(rows);
 	job.checkpoint();
 	job.onProgress(0.92, 'Inspection records');
-	const inspections = inspectionsCsv(job.request, drawings);
+	const photoFiles: PhotoFile[] = [];
+	const inspections = inspectionsCsv(job.request, drawings, photoFiles);
+	job.checkpoint();
+	// The records' photos, as stored (re-encoded at upload), named as inspections.csv names them.
+	const photoEntries: { name: string; bytes: Uint8Array }[] = [];
+	for (const file of photoFiles) {
+		const photo = photos.get(file.photoId);
+		if (photo)
+			photoEntries.push({ name: file.name, bytes: await storage.readAll(photo.storageKey) });
+	}
 	// NDE lots: every weld of each lot on these drawings, how it was selected, its report and result.
 	const ndeRegister = nde.registerCsv(drawings.map((d) => d.id));
 	job.checkpoint();
@@ -158,7 +168,8 @@ export async function buildPackage(job: PackageJob): Promise<PackageResult> {
 		{ name: 'weld-log.xlsx', bytes: xlsx },
 		{ name: 'weld-log.csv', bytes: csv },
 		{ name: 'inspections.csv', bytes: inspections },
-		{ name: 'nde-register.csv', bytes: ndeRegister }
+		{ name: 'nde-register.csv', bytes: ndeRegister },
+		...photoEntries
 	];
 	const problems = set.entries.filter((e) => e.problem);
 	const manifest = {

@@ -7,6 +7,7 @@ import { and, asc, eq, inArray } from 'drizzle-orm';
 import { db, schema } from '../db';
 import { csvLine } from '../csv';
 import * as weldLog from '../weld-log';
+import * as photos from '../photos';
 import { weldLogFilter } from '$lib/schemas/weld-log';
 import { COMPLETE_STATES, correctionsOf, displayWeldNumber, isComplete } from '$lib/joint-state';
 import type { ExportRequest } from '$lib/schemas/export';
@@ -77,6 +78,12 @@ export async function weldLogXlsx(
 
 // inspections.csv ---------------------------------------------------------------------------
 
+/** A photo of a record in the set: its name there (under `photos/`) and its id. */
+export interface PhotoFile {
+	name: string;
+	photoId: number;
+}
+
 const HEADERS = [
 	'Drawing',
 	'Weld no.',
@@ -96,7 +103,8 @@ const HEADERS = [
 	'Criteria set',
 	'Record id',
 	'Corrects record',
-	'Stands'
+	'Stands',
+	'Photos'
 ];
 
 function shownValue(value: number | boolean | null, unit: string | null): string {
@@ -112,7 +120,12 @@ const CHUNK = 2000;
  * Every inspection record of the joints in scope, corrections included (each names the row
  * it corrects), ordered by drawing, weld number and time so the file reads as a history.
  */
-export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeDrawing[]): Buffer {
+export function inspectionsCsv(
+	request: ExportRequest,
+	drawings: readonly ScopeDrawing[],
+	/** Filled with the photos of the records written, by their name in the set. */
+	photoFiles: PhotoFile[] = []
+): Buffer {
 	const i = schema.inspections;
 	const j = schema.joints;
 	const lines: string[] = [csvLine([CSV_CAUTION_CELL]), csvLine(HEADERS)];
@@ -165,6 +178,7 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 		);
 		// A drawing's joints sit in one chunk, so every correction is beside the row it names.
 		const correctedBy = correctionsOf(rows);
+		const photosOf = photos.byInspection(rows.map((row) => row.id));
 		for (const row of rows) {
 			const correction = correctedBy.get(row.id);
 			const set = row.criteriaSetId
@@ -174,6 +188,11 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						row.criteriaSetVersion ?? undefined
 					)
 				: undefined;
+			const names = (photosOf.get(row.id) ?? []).map((photo) => {
+				const name = `photos/record-${row.id}-photo-${photo.id}.jpg`;
+				photoFiles.push({ name, photoId: photo.id });
+				return name;
+			});
 			lines.push(
 				csvLine([
 					numberOf.get(row.drawingId) ?? '',
@@ -199,7 +218,8 @@ export function inspectionsCsv(request: ExportRequest, drawings: readonly ScopeD
 						: (row.criteriaSetId ?? ''),
 					row.id,
 					row.supersedesId ?? '',
-					correction ? `No: corrected by record ${correction.id}` : 'Yes'
+					correction ? `No: corrected by record ${correction.id}` : 'Yes',
+					names.join('; ')
 				])
 			);
 		}
