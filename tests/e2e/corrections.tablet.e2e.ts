@@ -98,7 +98,7 @@ test('a visual result corrected with a reason, then the weld cut out and replace
 	await undercut.blur();
 	await expect(form.getByText(/Table 341\.3\.2/).first()).toBeVisible();
 	await expect(form.getByText(/outside/i).first()).toBeVisible();
-	await expect(card.getByText(/verdict is an aid/i).first()).toBeVisible();
+	await expect(card.getByText(/verdicts are an aid/i).first()).toBeVisible();
 	await form.getByRole('button', { name: 'Reject', exact: true }).tap();
 	// Without a reason a correction cannot be signed.
 	await expect(form.getByRole('button', { name: 'Sign the correction' })).toBeDisabled();

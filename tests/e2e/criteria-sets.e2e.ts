@@ -93,7 +93,7 @@ test('a project set derived by the administrator governs the live verdict', asyn
 	await expect(form.getByText('PS-201 §4').first()).toBeVisible();
 	await expect(form.getByText(/outside/i).first()).toBeVisible();
 	await expect(form.getByText('PS-201 process piping').first()).toBeVisible();
-	await expect(inspector.getByText(/verdict is an aid/i).first()).toBeVisible();
+	await expect(inspector.getByText(/verdicts are an aid/i).first()).toBeVisible();
 	await inspector.close();
 
 	// The joint goes back to its set, so later tests find the demo job as it was.

@@ -40,7 +40,7 @@ test('an undercut beyond the limit is rejected and the pin goes to repair', asyn
 	await expect(form.getByText(/Table 341\.3\.2/).first()).toBeVisible();
 	await expect(form.getByText(/outside/i).first()).toBeVisible();
 	// The caution is in view wherever a verdict shows.
-	await expect(card.getByText(/verdict is an aid/i).first()).toBeVisible();
+	await expect(card.getByText(/verdicts are an aid/i).first()).toBeVisible();
 
 	await form.getByRole('button', { name: 'Reject', exact: true }).click();
 	await form.getByRole('button', { name: 'Sign and record' }).click();

@@ -60,7 +60,7 @@ test('the root side of a girth weld is on the card, judged live', async ({ page 
 	await expect(form.getByTestId('verdict')).toHaveAttribute('data-verdict', 'outside');
 	const finding = form.locator('[data-check="penetration.depth"]');
 	await expect(finding).toContainText('criterion B');
-	await expect(card.getByText(/verdict is an aid/i).first()).toBeVisible();
+	await expect(card.getByText(/verdicts are an aid/i).first()).toBeVisible();
 	await root.screenshot({ path: 'test-results/readings-root-side.tablet.png' });
 
 	await depth.fill('1/32');
@@ -91,7 +91,7 @@ test('radiograph indications are judged by the joint’s criteria set', async ({
 	const second = list.locator('[data-indication="1"]');
 	await second.getByRole('combobox', { name: /Type/ }).selectOption('crack');
 	await expect(form.getByTestId('nde-verdict')).toHaveAttribute('data-verdict', 'outside');
-	await expect(form.getByTestId('nde-verdict')).toContainText(/verdict is an aid/i);
+	await expect(form.getByTestId('nde-verdict')).toContainText(/verdicts are an aid/i);
 
 	await first.getByRole('textbox', { name: 'Length' }).fill('long');
 	await expect(first).toContainText('cannot read "long"');

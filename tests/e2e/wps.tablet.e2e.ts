@@ -54,7 +54,7 @@ test('a fit-up is judged live against the joint’s WPS', async ({ page }) => {
 	await gap.fill('3/32');
 	await gap.blur();
 	await expect(finding).toContainText('within');
-	await expect(card.getByText(/verdict is an aid/i).first()).toBeVisible();
+	await expect(card.getByText(/verdicts are an aid/i).first()).toBeVisible();
 });
 
 test('the WPS register is readable by every member', async ({ page }) => {
