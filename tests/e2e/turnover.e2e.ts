@@ -38,8 +38,8 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 	// export of the project is mistaken for this one.
 	await page.goto('/projects/1/turnover?scope=all&superseded=1');
 	await expect(page.getByRole('heading', { name: 'The set will hold' })).toBeVisible();
-	await expect(page.getByText(/joints are in scope but not accepted/)).toBeVisible();
-	await expect(page.getByText(/pins? still needs? review/)).toBeVisible();
+	await expect(page.getByText(/welds? (are|is) in scope but not accepted/)).toBeVisible();
+	await expect(page.getByText(/weld marks? still to be checked/)).toBeVisible();
 
 	const started = page.waitForResponse(
 		(r) => r.url().endsWith('/api/projects/1/exports') && r.request().method() === 'POST'
