@@ -141,7 +141,9 @@ test('the QC manager closes a lot and selects; a reject calls two tracers onto t
 	await expect(sheet).toHaveURL(/\/projects$/);
 	await sheet.goto(`/projects/1/drawings/${drawing.id}?page=1`);
 	// The pins stand on the sheet (drawn from its tiles while pdf.js may still be loading).
-	await expect(sheet.locator('[data-testid=pin]').first()).toBeVisible({ timeout: 30_000 });
+	await expect(sheet.locator('[data-testid=pin]:not([data-gathered])').first()).toBeVisible({
+		timeout: 30_000
+	});
 	await sheet.getByTestId('weld-search').fill(selected.number);
 	await sheet.getByTestId('weld-search').press('Enter');
 	const card = sheet.getByTestId('joint-card');

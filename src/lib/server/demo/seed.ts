@@ -345,6 +345,7 @@ function seedDrawing(tx: Tx, s: DrawingSeed): number {
 		welderIds: s.welderIds
 	};
 	let created = 0;
+	let flaggedOnDrawing = false;
 	for (const [number, entry] of numbers) {
 		const { weld } = entry;
 		const onCurrent = entry.revisions.has(last);
@@ -381,6 +382,11 @@ function seedDrawing(tx: Tx, s: DrawingSeed): number {
 			.returning({ id: schema.joints.id })
 			.get().id;
 		entry.revisions.forEach((w, i) => {
+			// Carried to the new revision; a few still wait for the document controller, and on
+			// every revised drawing at least one does.
+			const carried = i > firstRevision && i === last;
+			const needsReview = carried && (random() < 0.3 || !flaggedOnDrawing);
+			if (needsReview) flaggedOnDrawing = true;
 			tx.insert(schema.pins)
 				.values({
 					jointId,
@@ -388,8 +394,7 @@ function seedDrawing(tx: Tx, s: DrawingSeed): number {
 					pageIndex: w.pageIndex,
 					x: w.x,
 					y: w.y,
-					// Carried to the new revision; a few still wait for the document controller.
-					needsReview: i > firstRevision && i === last && random() < 0.3,
+					needsReview,
 					createdBy: i > firstRevision ? s.people.doccon : s.people.inspectors[0],
 					createdAt: Date.parse(`${drawing.revisions[i].revisionDate}T10:00:00Z`)
 				})
