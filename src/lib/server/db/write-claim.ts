@@ -14,24 +14,33 @@ export interface WriteClaim {
 	path: string;
 	/** Set once a transaction that claimed the key has committed. */
 	claimed: boolean;
+	/** Set while the claiming transaction runs: a transaction nested in it claims nothing. */
+	claiming?: boolean;
 }
 
 export const writeClaims = new AsyncLocalStorage<WriteClaim>();
 
 /**
  * Runs `run` (a transaction) with the claim of the current request's key inside it, when
- * there is one not yet claimed by an earlier transaction of the same request.
+ * there is one not yet claimed by an earlier transaction of the same request. A transaction
+ * nested in the claiming one (a verb called inside another's transaction) claims nothing: the
+ * outer one holds the claim, and commits or rolls back with it.
  */
 export function withClaim<T>(client: Database.Database, run: (claim: () => void) => T): T {
 	const claim = writeClaims.getStore();
-	if (!claim || claim.claimed) return run(() => {});
-	const result = run(() => {
-		client
-			.prepare(
-				'INSERT INTO idempotency_keys (user_id, key, request_hash, method, path) VALUES (?, ?, ?, ?, ?)'
-			)
-			.run(claim.userId, claim.key, claim.requestHash, claim.method, claim.path);
-	});
-	claim.claimed = true;
-	return result;
+	if (!claim || claim.claimed || claim.claiming) return run(() => {});
+	claim.claiming = true;
+	try {
+		const result = run(() => {
+			client
+				.prepare(
+					'INSERT INTO idempotency_keys (user_id, key, request_hash, method, path) VALUES (?, ?, ?, ?, ?)'
+				)
+				.run(claim.userId, claim.key, claim.requestHash, claim.method, claim.path);
+		});
+		claim.claimed = true;
+		return result;
+	} finally {
+		claim.claiming = false;
+	}
 }
