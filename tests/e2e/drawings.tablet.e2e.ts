@@ -80,7 +80,7 @@ test('a document controller issues drawings, an inspector reads and compares the
 		await page.getByRole('button', { name: 'Upload 2 files' }).click();
 
 		await expect(revision.getByRole('status')).toHaveText(
-			/Revision 1 is now current; the previous one is superseded; \d+ weld marks? carried to it\./,
+			/Revision 1 is now current; the previous one is superseded\. \d+ weld marks? carried over/,
 			{ timeout: 30_000 }
 		);
 		await expect(added.getByRole('status')).toHaveText(/Registered with revision 0\./);
