@@ -171,10 +171,24 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 	const inspector = await signedInClient('inspector@tacksheet.test');
 	const ids: Record<number, Record<string, string>> = {};
 	for (const projectId of [1, 2]) {
-		const first = (await (await admin.get(`/api/projects/${projectId}/drawings?pageSize=1`)).json())
-			.items[0];
-		const pin = (await (await admin.get(`/api/revisions/${first.currentRevision.id}/pins`)).json())
-			.items[0];
+		// A drawing still at its first revision, with pins: asking the matrix's POSTs of it (read
+		// the sheet again) must not re-judge pins that other tests expect carried and flagged.
+		const drawings = (
+			await (await admin.get(`/api/projects/${projectId}/drawings?pageSize=100`)).json()
+		).items as { id: number; currentRevision: { id: number; label: string } | null }[];
+		let first = drawings[0];
+		let pin = undefined as { jointId: number; pinId: number } | undefined;
+		for (const drawing of drawings.filter((d) => d.currentRevision?.label === '0')) {
+			const items = (
+				await (await admin.get(`/api/revisions/${drawing.currentRevision!.id}/pins`)).json()
+			).items as { jointId: number; pinId: number }[];
+			if (items.length) {
+				first = drawing;
+				pin = items[0];
+				break;
+			}
+		}
+		if (!pin) throw new Error(`project ${projectId} has no drawing at revision 0 with pins`);
 		// A turnover export of the project; 409 names the one already running.
 		const started = await admin.post(`/api/projects/${projectId}/exports`, {
 			headers: { origin: BASE_URL },
@@ -211,7 +225,7 @@ async function demoIds(): Promise<Record<number, Record<string, string>>> {
 		ids[projectId] = {
 			projectId: String(projectId),
 			drawingId: String(first.id),
-			revisionId: String(first.currentRevision.id),
+			revisionId: String(first.currentRevision!.id),
 			jointId: String(pin.jointId),
 			pinId: String(pin.pinId),
 			exportId: String(exportId),

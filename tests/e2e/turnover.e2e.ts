@@ -79,12 +79,16 @@ test('the turnover team exports the whole project, downloads the zip and checks 
 	const download = await downloading;
 	expect(download.suggestedFilename()).toMatch(/^LBM-20-turnover-set-\d+-\d{4}-\d{2}-\d{2}\.zip$/);
 	const entries = await unzip((await download.path())!);
+	// Photos other tests attached to records in scope travel in photos/, named by their record.
+	const photos = [...entries.keys()].filter((name) => name.startsWith('photos/'));
+	for (const name of photos) expect(name).toMatch(/^photos\/record-\d+-photo-\d+\.jpg$/);
 	expect([...entries.keys()]).toEqual([
 		'marked-up-set.pdf',
 		'weld-log.xlsx',
 		'weld-log.csv',
 		'inspections.csv',
 		'nde-register.csv',
+		...photos,
 		'manifest.json'
 	]);
 	const manifest = JSON.parse(entries.get('manifest.json')!.toString('utf8')) as {
